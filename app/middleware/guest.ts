@@ -1,0 +1,4 @@
+export default defineNuxtRouteMiddleware(() => {
+  const { loggedIn } = useUserSession()
+  if (loggedIn.value) return navigateTo('/crews')
+})

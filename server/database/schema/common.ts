@@ -1,0 +1,8 @@
+import { timestamp } from 'drizzle-orm/pg-core'
+
+export const timestamps = {
+  createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  updatedAt: timestamp('updated_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow().$onUpdate(() => new Date()),
+}
+
+export const createdAt = timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow()

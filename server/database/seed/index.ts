@@ -1,0 +1,20 @@
+import { count } from 'drizzle-orm'
+import type { Db } from '../../utils/db'
+import { users } from '../schema'
+import { seedPeople } from './people'
+import { seedSongs } from './songs'
+
+/**
+ * Seeds the invented demo crew when the database has no users yet, so it never writes over
+ * real data. Each step receives what the earlier ones made.
+ */
+export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
+  const [row] = await db.select({ n: count() }).from(users)
+  if (row!.n > 0) return false
+  await db.transaction(async (tx) => {
+    const people = await seedPeople(tx, useEnv().DEMO_PASSWORD)
+    await seedSongs(tx, people)
+  })
+  console.log('[barsmith] seeded the demo crew')
+  return true
+}

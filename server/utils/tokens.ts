@@ -1,0 +1,15 @@
+import { createHash, randomBytes } from 'node:crypto'
+
+/** A random URL-safe token and the SHA-256 that is stored instead of it. */
+export function newToken(): { token: string, hash: string } {
+  const token = randomBytes(32).toString('base64url')
+  return { token, hash: hashToken(token) }
+}
+
+export function hashToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex')
+}
+
+export function appLink(path: string): string {
+  return new URL(path, useEnv().APP_URL).toString()
+}

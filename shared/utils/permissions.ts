@@ -1,0 +1,46 @@
+/**
+ * The one permission table: every action a route performs, and the crew roles allowed to do
+ * it. The server enforces it through `requireCrewAccess` and friends; the client reads it
+ * only to hide buttons a role may not use.
+ */
+export const ROLES = ['owner', 'producer', 'writer', 'cowriter', 'listener'] as const
+export type Role = typeof ROLES[number]
+
+export const ROLE_LABELS: Record<Role, string> = {
+  owner: 'Owner',
+  producer: 'Producer',
+  writer: 'Writer',
+  cowriter: 'Co-writer',
+  listener: 'Listener',
+}
+
+const everyone: readonly Role[] = ROLES
+const makers: readonly Role[] = ['owner', 'producer', 'writer', 'cowriter']
+
+export const PERMISSIONS = {
+  // crew
+  'crew.view': everyone,
+  'crew.rename': ['owner'],
+  'member.list': everyone,
+  'member.invite': ['owner'],
+  'member.setRole': ['owner'],
+  'member.remove': ['owner'],
+  // songs
+  'song.view': everyone,
+  'song.create': ['owner', 'producer', 'writer'],
+  'song.rename': ['owner', 'producer', 'writer'],
+  'song.delete': ['owner'],
+  // comments
+  'comment.write': makers,
+} as const satisfies Record<string, readonly Role[]>
+
+export type Action = keyof typeof PERMISSIONS
+
+export function can(role: Role | null | undefined, action: Action): boolean {
+  return !!role && (PERMISSIONS[action] as readonly Role[]).includes(role)
+}
+
+/** One line per action, for the README and the role-matrix test's report. */
+export function permissionRows(): Array<{ action: Action, roles: readonly Role[] }> {
+  return (Object.keys(PERMISSIONS) as Action[]).map(action => ({ action, roles: PERMISSIONS[action] }))
+}

@@ -1,0 +1,71 @@
+import { randomUUID } from 'node:crypto'
+import type { Action } from '../../shared/utils/permissions'
+import type { ApiClient } from '../support/http'
+import type { Principal, TestCrew } from '../support/people'
+import type { Method } from '../support/routes'
+
+export interface MatrixContext {
+  crew: TestCrew
+  song: () => Promise<string>
+  member: (role?: string) => Promise<string>
+  invite: (email?: string) => Promise<string>
+  inviteToken: (email: string) => Promise<string>
+  crewWithSpareOwner: () => Promise<TestCrew>
+  freshClient: (p: Principal) => Promise<ApiClient>
+}
+
+export interface MatrixCase {
+  method: Method
+  route: string
+  /** 'public': no session needed; 'user': any signed-in account; else the crew action checked. */
+  access: 'public' | 'user' | Action
+  /** Status for a principal that is allowed. */
+  ok: number
+  /** Route parameters and body for one call by `principal`; may make fresh rows or a fresh client. */
+  prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, body?: unknown, client?: ApiClient }>
+}
+
+const email = () => `m-${randomUUID().slice(0, 8)}@example.test`
+const fakeToken = () => randomUUID().replace(/-/g, '').repeat(2)
+const emailOf = (ctx: MatrixContext, p: Principal) => (p === 'anonymous' ? email() : ctx.crew.users[p].email)
+
+export const MATRIX: MatrixCase[] = [
+  // accounts
+  { method: 'POST', route: '/api/auth/register', access: 'public', ok: 201, prepare: async () => ({ body: { name: 'Matrix', email: email(), password: 'long-enough-pass' } }) },
+  { method: 'POST', route: '/api/auth/login', access: 'public', ok: 200, prepare: async ctx => ({ body: { email: ctx.crew.users.listener.email, password: 'barsmith-demo' }, client: await ctx.freshClient('anonymous') }) },
+  { method: 'POST', route: '/api/auth/logout', access: 'public', ok: 204, prepare: async (ctx, p) => ({ client: await ctx.freshClient(p) }) },
+  { method: 'POST', route: '/api/auth/verify', access: 'public', ok: 400, prepare: async () => ({ body: { token: fakeToken() } }) },
+  { method: 'POST', route: '/api/auth/resend', access: 'public', ok: 200, prepare: async () => ({ body: { email: email() } }) },
+  { method: 'POST', route: '/api/auth/forgot', access: 'public', ok: 200, prepare: async () => ({ body: { email: email() } }) },
+  { method: 'POST', route: '/api/auth/reset', access: 'public', ok: 400, prepare: async () => ({ body: { token: fakeToken(), password: 'long-enough-pass' } }) },
+  { method: 'GET', route: '/api/health', access: 'public', ok: 200 },
+  { method: 'GET', route: '/api/me', access: 'user', ok: 200 },
+
+  // crews and members
+  { method: 'GET', route: '/api/crews', access: 'user', ok: 200 },
+  { method: 'POST', route: '/api/crews', access: 'user', ok: 201, prepare: async () => ({ body: { name: 'A new crew' } }) },
+  { method: 'GET', route: '/api/crews/[crewId]', access: 'crew.view', ok: 200 },
+  { method: 'PATCH', route: '/api/crews/[crewId]', access: 'crew.rename', ok: 200, prepare: async () => ({ body: { name: 'Renamed crew' } }) },
+  {
+    method: 'POST', route: '/api/crews/[crewId]/leave', access: 'crew.view', ok: 204,
+    prepare: async (ctx, p) => {
+      const other = await ctx.crewWithSpareOwner()
+      return { params: { crewId: other.crewId }, client: p === 'anonymous' ? other.as.anonymous : p === 'outsider' ? ctx.crew.as.outsider : other.as[p] }
+    },
+  },
+  { method: 'GET', route: '/api/crews/[crewId]/members', access: 'member.list', ok: 200 },
+  { method: 'PATCH', route: '/api/crews/[crewId]/members/[userId]', access: 'member.setRole', ok: 200, prepare: async ctx => ({ params: { userId: await ctx.member() }, body: { role: 'listener' } }) },
+  { method: 'DELETE', route: '/api/crews/[crewId]/members/[userId]', access: 'member.remove', ok: 204, prepare: async ctx => ({ params: { userId: await ctx.member() } }) },
+  { method: 'GET', route: '/api/crews/[crewId]/invites', access: 'member.invite', ok: 200 },
+  { method: 'POST', route: '/api/crews/[crewId]/invites', access: 'member.invite', ok: 201, prepare: async () => ({ body: { email: email(), role: 'writer' } }) },
+  { method: 'DELETE', route: '/api/crews/[crewId]/invites/[inviteId]', access: 'member.invite', ok: 204, prepare: async ctx => ({ params: { inviteId: await ctx.invite() } }) },
+  { method: 'GET', route: '/api/invites/[token]', access: 'public', ok: 200, prepare: async ctx => ({ params: { token: await ctx.inviteToken(email()) } }) },
+  { method: 'POST', route: '/api/invites/[token]/accept', access: 'user', ok: 200, prepare: async (ctx, p) => ({ params: { token: await ctx.inviteToken(emailOf(ctx, p)) } }) },
+
+  // songs
+  { method: 'GET', route: '/api/crews/[crewId]/songs', access: 'song.view', ok: 200 },
+  { method: 'POST', route: '/api/crews/[crewId]/songs', access: 'song.create', ok: 201, prepare: async () => ({ body: { title: 'Matrix song' } }) },
+  { method: 'GET', route: '/api/songs/[songId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
+  { method: 'PATCH', route: '/api/songs/[songId]', access: 'song.rename', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { title: 'Renamed' } }) },
+  { method: 'DELETE', route: '/api/songs/[songId]', access: 'song.delete', ok: 204, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
+]
