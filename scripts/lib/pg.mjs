@@ -65,9 +65,15 @@ export async function startCluster(dir, { preferredPort = Number(process.env.BAR
       '',
     ].join('\n'))
   }
-  const port = readPort(dir)
+  let port = readPort(dir)
   if (isRunning(dir)) return { port, startedHere: false, stop: async () => {} }
-  if (!(await portIsFree(port))) throw new Error(`Port ${port} (PostgreSQL, from ${dir}/postgresql.conf) is taken by another program`)
+  if (!(await portIsFree(port))) {
+    // Another program (or another checkout's cluster) took the port while ours was stopped.
+    const taken = port
+    port = await findFreePort(port + 1)
+    appendFileSync(resolve(dir, 'postgresql.conf'), `port = ${port}  # ${taken} was taken\n`)
+    step(`port ${taken} is taken: the cluster moves to ${port}`)
+  }
   step(`starting PostgreSQL on 127.0.0.1:${port}`)
   await asClusterUser('pg_ctl', ['-D', dir, '-l', resolve(dir, 'server.log'), '-w', '-t', '60', 'start'], { quiet: true })
   return { port, startedHere: true, stop: () => stopCluster(dir) }
