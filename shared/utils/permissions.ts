@@ -15,7 +15,6 @@ export const ROLE_LABELS: Record<Role, string> = {
 }
 
 const everyone: readonly Role[] = ROLES
-const makers: readonly Role[] = ['owner', 'producer', 'writer', 'cowriter']
 
 export const PERMISSIONS = {
   // crew
@@ -30,8 +29,6 @@ export const PERMISSIONS = {
   'song.create': ['owner', 'producer', 'writer'],
   'song.rename': ['owner', 'producer', 'writer'],
   'song.delete': ['owner'],
-  // comments
-  'comment.write': makers,
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS
@@ -40,7 +37,9 @@ export function can(role: Role | null | undefined, action: Action): boolean {
   return !!role && (PERMISSIONS[action] as readonly Role[]).includes(role)
 }
 
-/** One line per action, for the README and the role-matrix test's report. */
-export function permissionRows(): Array<{ action: Action, roles: readonly Role[] }> {
-  return (Object.keys(PERMISSIONS) as Action[]).map(action => ({ action, roles: PERMISSIONS[action] }))
+/** The table as Markdown, as the README prints it (a unit test keeps the two equal). */
+export function permissionMarkdown(): string {
+  const rows = (Object.keys(PERMISSIONS) as Action[]).map(action =>
+    `| \`${action}\` | ${ROLES.map(r => (can(r, action) ? '✓' : '·')).join(' | ')} |`)
+  return [`| action | ${ROLES.map(r => ROLE_LABELS[r].toLowerCase()).join(' | ')} |`, `|---|${ROLES.map(() => ':-:').join('|')}|`, ...rows].join('\n')
 }
