@@ -29,6 +29,10 @@ export const PERMISSIONS = {
   'song.create': ['owner', 'producer', 'writer'],
   'song.rename': ['owner', 'producer', 'writer'],
   'song.delete': ['owner'],
+  // drafts and versions (reading them is song.view)
+  'draft.create': ['owner', 'writer'],
+  'draft.edit': ['owner', 'writer'],
+  'version.save': ['owner', 'writer'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS

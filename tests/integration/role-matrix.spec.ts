@@ -43,6 +43,18 @@ beforeAll(async () => {
       await sql(`INSERT INTO memberships (crew_id, user_id, role) VALUES ($1, $2, 'owner')`, [other.crewId, spare.id])
       return other
     },
+    async draft() {
+      const songId = await this.song()
+      const draftId = (await crew.as.owner.post(`/api/songs/${songId}/drafts`, { name: 'Matrix' })).body.id
+      const versionId = (await crew.as.owner.post(`/api/drafts/${draftId}/versions`, { baseVersionId: null, lines: [{ id: 'm1', bar: 1, text: 'v1' }] })).body.id
+      return { songId, draftId, versionId }
+    },
+    async sideSave(p: Principal) {
+      const { draftId } = await this.draft()
+      const author = p !== 'anonymous' && p !== 'outsider' && can(p, 'version.save') ? crew.as[p] : crew.as.writer
+      const res = await author.post(`/api/drafts/${draftId}/versions`, { baseVersionId: null, lines: [{ id: 's', bar: 1, text: 'late' }] })
+      return res.body.data.sideSaveId as string
+    },
     freshClient: async (p: Principal) => (p === 'anonymous' ? new ApiClient() : signedIn(crew.users[p])),
   }
 })

@@ -11,6 +11,10 @@ export interface MatrixContext {
   invite: (email?: string) => Promise<string>
   inviteToken: (email: string) => Promise<string>
   crewWithSpareOwner: () => Promise<TestCrew>
+  /** A new draft on a new song, with one saved version. */
+  draft: () => Promise<{ songId: string, draftId: string, versionId: string }>
+  /** A save by `p` refused as stale (kept aside); by the writer when `p` may not save. */
+  sideSave: (p: Principal) => Promise<string>
   freshClient: (p: Principal) => Promise<ApiClient>
 }
 
@@ -68,4 +72,22 @@ export const MATRIX: MatrixCase[] = [
   { method: 'GET', route: '/api/songs/[songId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
   { method: 'PATCH', route: '/api/songs/[songId]', access: 'song.rename', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { title: 'Renamed' } }) },
   { method: 'DELETE', route: '/api/songs/[songId]', access: 'song.delete', ok: 204, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
+
+  // drafts and versions
+  { method: 'GET', route: '/api/songs/[songId]/drafts', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
+  { method: 'POST', route: '/api/songs/[songId]/drafts', access: 'draft.create', ok: 201, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { name: 'Matrix draft' } }) },
+  { method: 'GET', route: '/api/drafts/[draftId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { draftId: (await ctx.draft()).draftId } }) },
+  { method: 'PATCH', route: '/api/drafts/[draftId]', access: 'draft.edit', ok: 200, prepare: async ctx => ({ params: { draftId: (await ctx.draft()).draftId }, body: { name: 'Renamed draft' } }) },
+  { method: 'GET', route: '/api/drafts/[draftId]/versions', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { draftId: (await ctx.draft()).draftId } }) },
+  {
+    method: 'POST', route: '/api/drafts/[draftId]/versions', access: 'version.save', ok: 201,
+    prepare: async (ctx) => {
+      const d = await ctx.draft()
+      return { params: { draftId: d.draftId }, body: { baseVersionId: d.versionId, lines: [{ id: 'm1', bar: 1, text: 'matrix line' }] } }
+    },
+  },
+  { method: 'GET', route: '/api/drafts/[draftId]/side-saves', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { draftId: (await ctx.draft()).draftId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  { method: 'POST', route: '/api/versions/[versionId]/restore', access: 'version.save', ok: 201, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  { method: 'PATCH', route: '/api/side-saves/[sideSaveId]', access: 'version.save', ok: 200, prepare: async (ctx, p) => ({ params: { sideSaveId: await ctx.sideSave(p) }, body: {} }) },
 ]

@@ -1,0 +1,18 @@
+export default defineEventHandler(async (event) => {
+  const { version, draft } = await requireVersionAccess(event, 'song.view')
+  return {
+    id: version.id,
+    number: version.number,
+    draftId: version.draftId,
+    songId: draft.songId,
+    isHead: draft.headVersionId === version.id,
+    authorId: version.authorId,
+    kind: version.kind,
+    note: version.note,
+    createdAt: version.createdAt,
+    parentId: version.parentId,
+    lines: version.lines,
+    doc: version.doc,
+    sealed: false,
+  }
+})

@@ -1,0 +1,135 @@
+import { and, desc, eq, sql } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import { z } from 'zod'
+import type { Action } from '../../shared/utils/permissions'
+import { LIMITS } from '../../shared/schemas/drafts'
+import { LyricDocSchema } from '../../shared/schemas/lyric-doc'
+import { docFromLines, linesFromDoc, sameLines, type LyricDoc, type LyricLine } from '../../shared/utils/lyric-doc'
+import { drafts, sideSaves, songs, versions, type Draft, type Version } from '../database/schema'
+import type { DbOrTx } from './db'
+
+/** Loads the draft behind the `draftId` route parameter and checks `action` in its song's crew. */
+export async function requireDraftAccess(event: H3Event, action: Action, param = 'draftId') {
+  await requireUser(event)
+  const draftId = idParam(event, param, 'Draft')
+  const [row] = await useDb().select({ draft: drafts, song: songs }).from(drafts)
+    .innerJoin(songs, eq(songs.id, drafts.songId)).where(eq(drafts.id, draftId))
+  if (!row) throw notFound('Draft')
+  const access = await requireCrewAccess(event, row.song.crewId, action, 'Draft')
+  return { ...access, draft: row.draft, song: row.song }
+}
+
+/** Loads the version behind the `versionId` route parameter and checks `action` in its crew. */
+export async function requireVersionAccess(event: H3Event, action: Action, param = 'versionId') {
+  await requireUser(event)
+  const versionId = idParam(event, param, 'Version')
+  const [row] = await useDb().select({ version: versions, draft: drafts, song: songs }).from(versions)
+    .innerJoin(drafts, eq(drafts.id, versions.draftId))
+    .innerJoin(songs, eq(songs.id, drafts.songId))
+    .where(eq(versions.id, versionId))
+  if (!row) throw notFound('Version')
+  const access = await requireCrewAccess(event, row.song.crewId, action, 'Version')
+  return { ...access, version: row.version, draft: row.draft, song: row.song }
+}
+
+/**
+ * The document to store with `lines`: the client's own when it sends one (it must parse as a
+ * lyric document and say exactly what `lines` say), else one derived from the lines.
+ */
+export function documentFor(lines: LyricLine[], doc: unknown): LyricDoc {
+  if (doc === undefined) return docFromLines(lines)
+  if (JSON.stringify(doc).length > LIMITS.docBytes) {
+    throw createError({ statusCode: 413, message: `The document is larger than ${LIMITS.docBytes / 1_000_000} MB.` })
+  }
+  const parsed = LyricDocSchema.safeParse(doc)
+  if (!parsed.success) {
+    throw createError({ statusCode: 400, message: `The document is not a lyric document: ${z.prettifyError(parsed.error).split('\n')[0]}`, data: { fields: { doc: 'not a lyric document' } } })
+  }
+  const typed = parsed.data as LyricDoc
+  if (!sameLines(linesFromDoc(typed), lines)) {
+    throw createError({ statusCode: 400, message: 'The document and the lines disagree. Send lines derived from the document.', data: { fields: { doc: 'does not match lines' } } })
+  }
+  return typed
+}
+
+export interface SaveInput {
+  draft: Pick<Draft, 'id' | 'songId'>
+  authorId: string
+  baseVersionId: string | null
+  lines: LyricLine[]
+  doc: LyricDoc
+  note?: string | null
+  kind?: Version['kind']
+}
+
+export type SaveResult
+  = | { saved: true, version: { id: string, number: number } }
+    | { saved: false, head: { id: string, number: number } | null, sideSaveId: string }
+
+/**
+ * Saves a new version on top of the draft's head, or — when `baseVersionId` is no longer the
+ * head — keeps the text as a side save and reports the head. The draft row is locked for the
+ * duration, so concurrent saves on one head produce exactly one new version.
+ */
+export async function saveVersion(db: DbOrTx, input: SaveInput): Promise<SaveResult> {
+  return db.transaction(async (tx) => {
+    const [draft] = await tx.select().from(drafts).where(eq(drafts.id, input.draft.id)).for('update')
+    if (!draft) throw notFound('Draft')
+    if (draft.archivedAt) throw createError({ statusCode: 409, message: 'This draft is archived. Restore it from the drafts list before saving.' })
+    const [head] = draft.headVersionId
+      ? await tx.select({ id: versions.id, number: versions.number }).from(versions).where(eq(versions.id, draft.headVersionId))
+      : []
+    if ((head?.id ?? null) !== input.baseVersionId) {
+      const [side] = await tx.insert(sideSaves).values({
+        draftId: draft.id,
+        baseVersionId: input.baseVersionId,
+        headVersionId: head?.id ?? null,
+        authorId: input.authorId,
+        note: input.note ?? null,
+        doc: input.doc,
+        lines: input.lines,
+      }).returning({ id: sideSaves.id })
+      return { saved: false, head: head ?? null, sideSaveId: side!.id }
+    }
+    const [version] = await tx.insert(versions).values({
+      draftId: draft.id,
+      number: (head?.number ?? 0) + 1,
+      parentId: head?.id ?? null,
+      authorId: input.authorId,
+      kind: input.kind ?? 'save',
+      note: input.note || null,
+      doc: input.doc,
+      lines: input.lines,
+    }).returning({ id: versions.id, number: versions.number })
+    await tx.update(drafts).set({ headVersionId: version!.id }).where(eq(drafts.id, draft.id))
+    await publishSongEvent(tx, draft.songId, { type: 'version', draftId: draft.id, versionId: version!.id, number: version!.number, authorId: input.authorId })
+    return { saved: true, version: version! }
+  })
+}
+
+/** The 409 a refused save answers with: the head to rebase on, and where the text was kept. */
+export function staleSaveError(result: Extract<SaveResult, { saved: false }>) {
+  return createError({
+    statusCode: 409,
+    message: result.head
+      ? `Someone saved version ${result.head.number} while you were writing. Your text is kept aside; compare and merge it with the new version.`
+      : 'This draft has no versions yet: save with baseVersionId null. Your text is kept aside.',
+    data: { head: result.head, sideSaveId: result.sideSaveId },
+  })
+}
+
+/** Drafts of a song with their head's number, main first then newest. */
+export async function listDrafts(db: DbOrTx, songId: string, includeArchived = false) {
+  return db.select({
+    id: drafts.id,
+    name: drafts.name,
+    headVersionId: drafts.headVersionId,
+    headNumber: versions.number,
+    isMain: drafts.isMain,
+    archivedAt: drafts.archivedAt,
+    updatedAt: drafts.updatedAt,
+  }).from(drafts)
+    .leftJoin(versions, eq(versions.id, drafts.headVersionId))
+    .where(includeArchived ? eq(drafts.songId, songId) : and(eq(drafts.songId, songId), sql`${drafts.archivedAt} IS NULL`))
+    .orderBy(desc(drafts.isMain), desc(drafts.updatedAt))
+}
