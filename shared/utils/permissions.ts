@@ -32,6 +32,9 @@ export const PERMISSIONS = {
   'song.delete': ['owner'],
   // comments
   'comment.write': makers,
+  // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
+  'lexicon.view': everyone,
+  'lexicon.edit': ['owner', 'writer', 'cowriter'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS
