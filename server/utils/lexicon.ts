@@ -47,7 +47,9 @@ export function taughtPhones(input: { phones?: string, soundsLike?: string }): {
   for (const w of words) {
     const r = resolveWord(w)
     if (r.source !== 'dictionary') throw fieldError('soundsLike', `"${w}" is not in the dictionary; respell with words it knows, or type ARPAbet.`)
-    phones.push(...r.prons[0]!)
+    // Like a compound, the first stressed word keeps the main stress (glow lee → G L OW1 L IY2).
+    const primarySeen = phones.some(ph => ph.endsWith('1'))
+    phones.push(...r.prons[0]!.map(ph => (primarySeen && ph.endsWith('1') ? `${ph.slice(0, -1)}2` : ph)))
   }
   if (phones.length > 40) throw fieldError('soundsLike', 'That respelling is too long for one word.')
   return { phones: phones.join(' '), soundsLike: input.soundsLike!.trim() }

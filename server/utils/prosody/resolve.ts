@@ -1,4 +1,5 @@
 import { base, isVowel, stressOf, syllableCount } from './arpabet'
+import { isCommonWord } from './common-words'
 import { CORRECTIONS } from './corrections'
 import { dictionaryPronunciations } from './dictionary'
 import { predict, type LtsModel } from './lts'
@@ -73,6 +74,13 @@ export function concatParts(parts: string[][][], demoteLater = false): string[][
 
 interface Derivation { stem: string, make: (p: readonly string[]) => string[] }
 
+/** tangle + ing → tangling: a stem's syllabic "-le" (AH0 L) loses its vowel before a vowel suffix. */
+function dropSyllabicL(stem: string, p: readonly string[]): string[] {
+  const n = p.length
+  if (stem.endsWith('le') && n >= 2 && p[n - 1] === 'L' && p[n - 2] === 'AH0') return [...p.slice(0, n - 2), 'L']
+  return [...p]
+}
+
 /** Stems a word may be an inflection of, most likely first. */
 function derivations(w: string): Derivation[] {
   const out: Derivation[] = []
@@ -82,7 +90,7 @@ function derivations(w: string): Derivation[] {
   if (w.endsWith('\'s')) add(w.slice(0, -2), withS)
   if (w.endsWith('s\'')) add(w.slice(0, -1), p => [...p])
   if (w.endsWith('ies')) add(`${w.slice(0, -3)}y`, p => [...p.slice(0, -1), 'IY0', 'Z'])
-  if (w.endsWith('es')) add(w.slice(0, -2), withS)
+  if (/(s|x|z|ch|sh)es$/.test(w)) add(w.slice(0, -2), withS)
   if (w.endsWith('s') && !w.endsWith('ss')) add(w.slice(0, -1), withS)
   if (w.endsWith('ied')) add(`${w.slice(0, -3)}y`, p => [...p.slice(0, -1), 'IY0', 'D'])
   if (w.endsWith('ed')) {
@@ -92,14 +100,14 @@ function derivations(w: string): Derivation[] {
   }
   if (w.endsWith('ing')) {
     add(w.slice(0, -3), p => [...p, 'IH0', 'NG'])
-    add(`${w.slice(0, -3)}e`, p => [...p, 'IH0', 'NG'])
+    add(`${w.slice(0, -3)}e`, p => [...dropSyllabicL(`${w.slice(0, -3)}e`, p), 'IH0', 'NG'])
     if (w.length > 5 && w[w.length - 4] === w[w.length - 5]) add(w.slice(0, -4), p => [...p, 'IH0', 'NG'])
   }
-  for (const [suffix, phones] of [['ers', ['ER0', 'Z']], ['er', ['ER0']], ['est', ['AH0', 'S', 'T']], ['ly', ['L', 'IY0']], ['y', ['IY0']], ['z', ['Z']]] as const) {
+  for (const [suffix, phones] of [['ness', ['N', 'AH0', 'S']], ['ers', ['ER0', 'Z']], ['er', ['ER0']], ['est', ['AH0', 'S', 'T']], ['ly', ['L', 'IY0']], ['y', ['IY0']], ['z', ['Z']]] as const) {
     if (!w.endsWith(suffix)) continue
     const stem = w.slice(0, -suffix.length)
     add(stem, p => [...p, ...phones])
-    add(`${stem}e`, p => [...p, ...phones])
+    add(`${stem}e`, p => [...(phones[0] === 'L' ? p : dropSyllabicL(`${stem}e`, p)), ...phones])
     if (stem.length > 3 && stem[stem.length - 1] === stem[stem.length - 2]) add(stem.slice(0, -1), p => [...p, ...phones])
   }
   return out
@@ -154,16 +162,23 @@ function derive(word: string, lookup: (w: string) => string[][] | null, depth: n
     if (p) return { prons: p, source: 'guess', method: 'inflection', parts: [noApostrophe] }
   }
   // runnin' / runnin → running, said with N instead of NG
-  const dropped = w.match(/^(.{2,})in'?$/)
+  const dropped = w.match(/^(.{2,})in('?)$/)
   if (dropped) {
     const full = `${dropped[1]}ing`
-    const p = lookup(full) ?? (depth === 0 ? derive(full, lookup, depth + 1)?.prons : null)
+    // Without the apostrophe, -in is a dropped g only when -ing makes a common word (not joplin).
+    const p = dropped[2] || isCommonWord(full) ? lookup(full) ?? (depth === 0 ? derive(full, lookup, depth + 1)?.prons : null) : null
     if (p) {
       const prons = p.map(ph => (base(ph[ph.length - 1] ?? '') === 'NG' ? [...ph.slice(0, -1), 'N'] : ph))
       return { prons: dedupe(prons), source: 'guess', method: 'dropped-g', parts: [full] }
     }
+    // skrrtin: a known word plus the sung -in
+    const stem = dropped[1]!
+    const sp = stem.length >= 3 ? lookup(stem) : null
+    if (sp) return { prons: dedupe(sp.map(ph => [...ph, 'IH0', 'N'])), source: 'guess', method: 'dropped-g', parts: [stem] }
   }
-  for (const d of derivations(noApostrophe === w ? w : w)) {
+  for (const d of derivations(w)) {
+    // Stems must be common words: the dictionary's surnames would derive nonsense (gay → ga + y).
+    if (d.stem.length < 3 || !isCommonWord(d.stem)) continue
     const p = lookup(d.stem)
     if (p) return { prons: dedupe(p.map(d.make)), source: 'guess', method: 'inflection', parts: [d.stem] }
   }
@@ -172,19 +187,23 @@ function derive(word: string, lookup: (w: string) => string[][] | null, depth: n
   return null
 }
 
+// Endings that are words too but make no compound (potion ≠ pot + ion).
+const SUFFIX_LIKE = new Set(['ion', 'ions', 'ation', 'ration', 'ate', 'ant', 'ants', 'age', 'ism', 'ist', 'ness', 'less', 'ling', 'let', 'son', 'ton', 'ent', 'ence', 'ance', 'ure', 'ery', 'ary', 'ory', 'ive', 'ous', 'ally', 'ice', 'tion', 'one', 'ones', 'ere', 'ore', 'ale', 'ine', 'ene'])
+
 /** stagelight → stage + light: two dictionary words of 3+ letters, the most even split first. */
 function splitCompound(w: string, lookup: (w: string) => string[][] | null): Resolved | null {
   if (!/^[a-z]{6,}$/.test(w)) return null
   let best: { at: number, parts: [string[][], string[][]] } | null = null
   for (let at = 3; at <= w.length - 3; at++) {
+    if (!isCommonWord(w.slice(0, at)) || SUFFIX_LIKE.has(w.slice(at))) continue
     const a = lookup(w.slice(0, at))
     if (!a) continue
-    let b = lookup(w.slice(at))
+    let b = isCommonWord(w.slice(at)) ? lookup(w.slice(at)) : null
     if (!b) {
       const tail = w.slice(at)
       for (const d of derivations(tail)) {
         const p = lookup(d.stem)
-        if (p && d.stem.length >= 3) {
+        if (p && d.stem.length >= 3 && isCommonWord(d.stem)) {
           b = p.map(d.make)
           break
         }
