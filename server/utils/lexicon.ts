@@ -75,4 +75,3 @@ export function lexiconJson(row: LexiconEntry) {
 export function listLexicon(crewId: string) {
   return useDb().select().from(lexiconEntries).where(eq(lexiconEntries.crewId, crewId)).orderBy(asc(lexiconEntries.word))
 }
-

@@ -1,6 +1,5 @@
-import { relations } from 'drizzle-orm'
+import { relations, sql } from 'drizzle-orm'
 import { check, index, pgTable, text, unique, uuid } from 'drizzle-orm/pg-core'
-import { sql } from 'drizzle-orm'
 import { timestamps } from './common'
 import { crews } from './crews'
 import { users } from './auth'

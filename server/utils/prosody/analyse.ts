@@ -131,6 +131,20 @@ const FUNCTION_WORDS = new Set(('a an the and or but nor of to in on at by for w
   + 'not no so if then than can will would could should just like \'em em y\'all ya yo oh uh um im i\'m it\'s that\'s '
   + 'don\'t ain\'t gonna wanna gotta tryna what who when where how all got get').split(' '))
 
+interface RhymeFacts { key: string, onset: string, partVowels: number }
+const factsCache = new WeakMap<readonly string[], RhymeFacts>()
+
+/** Rhyme part key, onset and the rhyme part's vowel count of a pronunciation (cached per shared array). */
+function rhymeFacts(phones: readonly string[]): RhymeFacts {
+  let f = factsCache.get(phones)
+  if (!f) {
+    const part = rhymePart(phones)
+    f = { key: part.join(' '), onset: phones.slice(0, phones.length - part.length).map(base).join(' '), partVowels: shapeOf(part).vowels.length }
+    factsCache.set(phones, f)
+  }
+  return f
+}
+
 const shortest = (p: string[][]) => p.reduce((m, x) => Math.min(m, syllableCount(x)), Infinity)
 const longest = (p: string[][]) => p.reduce((m, x) => Math.max(m, syllableCount(x)), 0)
 
@@ -170,6 +184,22 @@ function analyseWord(token: ReturnType<typeof tokenize>[number], index: number, 
   }
   if (token.spoken.length > 1 || token.spoken[0] !== token.norm) word.spoken = token.spoken
   return word
+}
+
+// Words of a line as the dictionary alone reads them, per line text; a draft mostly re-sends
+// the lines it sent before. Copied out, because families are marked on the copies.
+const lineCache = new Map<string, WordAnalysis[]>()
+const LINE_CACHE_CAP = 5000
+
+function lineWords(text: string, options: ResolveOptions): WordAnalysis[] {
+  if (options.lexicon) return tokenize(text).map((t, i) => analyseWord(t, i, options))
+  let words = lineCache.get(text)
+  if (!words) {
+    words = tokenize(text).map((t, i) => analyseWord(t, i, options))
+    if (lineCache.size >= LINE_CACHE_CAP) lineCache.clear()
+    lineCache.set(text, words)
+  }
+  return words.map(w => ({ ...w }))
 }
 
 function letterFor(n: number): string {
@@ -221,11 +251,9 @@ function wordFamilies(lines: LineAnalysis[]): Array<{ kind: 'perfect' | 'near', 
       if (w.isAdlib || w.syllables === 0) continue
       const lineEnd = w.index === lastSung
       if (!lineEnd && FUNCTION_WORDS.has(w.normalized)) continue
-      const part = rhymePart(w.phones)
-      if (!part.length) continue
-      const perfectKey = part.join(' ')
-      const onsetPhones = w.phones.slice(0, w.phones.length - part.length).map(base)
-      candidates.push({ line: li, word: w, lineEnd, perfectKey, onset: onsetPhones.join(' ') })
+      const facts = rhymeFacts(w.phones)
+      if (!facts.key) continue
+      candidates.push({ line: li, word: w, lineEnd, perfectKey: facts.key, onset: facts.onset })
     }
   })
   // Perfect keys, then near links between keys sharing their vowels.
@@ -283,7 +311,7 @@ interface StreamVowel { v: string, stressed: boolean, line: number, word: number
 /** Multi families: two or more vowel sounds in a row matching across words, ending at word ends. */
 function multiFamilies(lines: LineAnalysis[]) {
   const stream: StreamVowel[] = []
-  const wordEnds: Array<{ pos: number, line: number, word: WordAnalysis, lineEnd: boolean, firstPos: number }> = []
+  const wordEnds: Array<{ pos: number, line: number, word: WordAnalysis, lineEnd: boolean, firstPos: number, partVowels: number }> = []
   lines.forEach((line, li) => {
     const sung = line.words.filter(w => !w.isAdlib && w.syllables > 0)
     sung.forEach((w, k) => {
@@ -295,24 +323,34 @@ function multiFamilies(lines: LineAnalysis[]) {
         const v = base(part.phones.find(p => /\d$/.test(p))!)
         stream.push({ v: !stressed && (v === 'AH' || v === 'IH') ? 'AH' : v, stressed, line: li, word: w.index })
       }
-      wordEnds.push({ pos: stream.length - 1, line: li, word: w, lineEnd: k === sung.length - 1, firstPos: first })
+      wordEnds.push({ pos: stream.length - 1, line: li, word: w, lineEnd: k === sung.length - 1, firstPos: first, partVowels: rhymeFacts(w.phones).partVowels })
     })
   })
-  const matchLength = (p1: number, p2: number): number => {
+  const lineOf = (i: number) => stream[i]!.line
+  const matchLength = (p1: number, p2: number, w1: WordAnalysis, w2: WordAnalysis): number => {
     let l = 0
-    while (p1 - l >= 0 && p2 - l > p1 && stream[p1 - l]!.v === stream[p2 - l]!.v && stream[p1 - l]!.line === stream[p1]!.line && stream[p2 - l]!.line === stream[p2]!.line) l++
+    const l1 = lineOf(p1)
+    const l2 = lineOf(p2)
+    while (p1 - l >= 0 && p2 - l > p1) {
+      const a = stream[p1 - l]!
+      const b = stream[p2 - l]!
+      if (a.v !== b.v || a.line !== l1 || b.line !== l2) break
+      // As in Malmi et al.'s reference: a run stops where both sides reach the same earlier word.
+      if (a.word !== w1.index && b.word !== w2.index && lines[a.line]!.words[a.word]!.normalized === lines[b.line]!.words[b.word]!.normalized) break
+      l++
+    }
     return l
   }
   const pairs: Array<{ a: number, b: number, l: number }> = []
   for (let e2 = 1; e2 < wordEnds.length; e2++) {
     const w2 = wordEnds[e2]!
-    const partVowels2 = shapeOf(rhymePart(w2.word.phones)).vowels.length
     const tryPair = (e1: number) => {
       const w1 = wordEnds[e1]!
       if (w1.word.normalized === w2.word.normalized) return
-      const l = matchLength(w1.pos, w2.pos)
       // Not more than the two words' own rhyme already says (money/funny is a perfect rhyme, not a multi).
-      const partVowels = Math.min(partVowels2, shapeOf(rhymePart(w1.word.phones)).vowels.length)
+      const partVowels = Math.min(w2.partVowels, w1.partVowels)
+      if (w1.pos - partVowels < 0) return
+      const l = matchLength(w1.pos, w2.pos, w1.word, w2.word)
       if (l < 2 || l <= partVowels) return
       // Beyond what the last words' own rhyme gives, the run must carry a stressed vowel on both sides.
       let s1 = false
@@ -366,7 +404,7 @@ function multiFamilies(lines: LineAnalysis[]) {
 export function analyseDraft(input: AnalysisInput, lexicon?: Lexicon): Analysis {
   const options: ResolveOptions = lexicon?.size ? { lexicon } : {}
   const lines: LineAnalysis[] = input.lines.map((line) => {
-    const words = tokenize(line.text).map((t, i) => analyseWord(t, i, options))
+    const words = lineWords(line.text, options)
     let syllables = 0
     let min = 0
     let max = 0
@@ -422,13 +460,10 @@ export function analyseDraft(input: AnalysisInput, lexicon?: Lexicon): Analysis 
   for (const m of multis) {
     all.push({ kind: 'multi', key: m.key, syllables: m.syllables, members: m.words, firstLine: Math.min(...m.words.map(w => w.line)) })
   }
+  const lastSung = lines.map(line => line.words.filter(w => !w.isAdlib && w.syllables > 0).at(-1))
   all.forEach((f, i) => {
     if (f.kind === 'multi') return
-    for (const m of f.members) {
-      const line = lines[m.line]!
-      const lastSung = line.words.filter(w => !w.isAdlib && w.syllables > 0).at(-1)
-      if (lastSung === m.word) famOfEndWord.set(m.line, i)
-    }
+    for (const m of f.members) if (lastSung[m.line] === m.word) famOfEndWord.set(m.line, i)
   })
   multis.forEach((m, k) => {
     for (const s of m.spans) if (s.lineEnd && !famOfEndWord.has(s.line)) famOfEndWord.set(s.line, single.length + k)
@@ -437,7 +472,7 @@ export function analyseDraft(input: AnalysisInput, lexicon?: Lexicon): Analysis 
   const letterOf = new Map<number, string>()
   let next = 0
   const scheme = lines.map((line, li) => {
-    if (!line.words.some(w => !w.isAdlib && w.syllables > 0)) return '-'
+    if (!lastSung[li]) return '-'
     const f = famOfEndWord.get(li)
     if (f === undefined) return letterFor(next++)
     if (!letterOf.has(f)) letterOf.set(f, letterFor(next++))

@@ -18,7 +18,6 @@ import { tokenize } from './tokenize'
  * redistribute the counts in a hosted product.
  */
 
-
 /**
  * Struct of arrays over the candidate words (one entry per pronunciation), common words first,
  * so every bucket below lists its words in the order the finder shows them.
@@ -112,7 +111,7 @@ export function finderIndex(): FinderIndex {
           if (parts) parts.push(part)
           else nearParts.set(v, [part])
         }
-        for (let k = 2; k <= 4 && k <= count; k++) push(tails[k - 2], tailKey(vowelScratch, count, k), id)
+        for (let k = 2; k <= 4 && k <= count; k++) push(tails[k - 2]!, tailKey(vowelScratch, count, k), id)
       }
     }
   }
@@ -232,7 +231,7 @@ export function findRhymes(query: string, options: { lexicon?: Lexicon, limit?: 
   for (const id of nearIds) take(result.near, { word: idx.words[id]!, syllables: idx.syllables[id]! })
   // Multi: the longest run of matching vowels from the end, 4 then 3 then 2.
   for (let k = Math.min(4, vowels.length); k >= 2; k--) {
-    const ids = idx.tails[k - 2].get(tailKey(vowels.map(v => VOWEL_ID.get(v) ?? 0), vowels.length, k)) ?? []
+    const ids = idx.tails[k - 2]!.get(tailKey(vowels.map(v => VOWEL_ID.get(v) ?? 0), vowels.length, k)) ?? []
     for (const id of ids) {
       if (result.multi.length >= limit) break
       take(result.multi, { word: idx.words[id]!, syllables: idx.syllables[id]!, matched: k })
@@ -241,4 +240,3 @@ export function findRhymes(query: string, options: { lexicon?: Lexicon, limit?: 
   result.groups = { perfect: group(result.perfect), near: group(result.near), multi: group(result.multi) }
   return result
 }
-
