@@ -33,6 +33,9 @@ export const PERMISSIONS = {
   'draft.create': ['owner', 'writer'],
   'draft.edit': ['owner', 'writer'],
   'version.save': ['owner', 'writer'],
+  // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
+  'lexicon.view': everyone,
+  'lexicon.edit': ['owner', 'writer', 'cowriter'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS
