@@ -1,6 +1,7 @@
 // Each accepted format decodes to the same duration (within 50 ms) as the WAV it was made
 // from; fixtures are synthesized here and converted with Debian's lame, flac and oggenc.
 import { describe, expect, it } from 'vitest'
+import { analyseFile } from '../../server/utils/audio/analyse'
 import { decodeAudio, AudioDecodeError } from '../../server/utils/audio/decode'
 import { detectAudioFormat, SNIFF_BYTES } from '../../server/utils/audio/formats'
 import { readGaplessInfo } from '../../server/utils/audio/mp3-gapless'
@@ -39,5 +40,29 @@ describe('decoding each accepted format', () => {
     await expect(decodeAudio(cut, 'wav')).rejects.toBeInstanceOf(AudioDecodeError)
     const garbage = Buffer.concat([makeFixture('decode-93', synth, 'flac').bytes.subarray(0, 200), Buffer.alloc(5000, 0x55)])
     await expect(decodeAudio(garbage, 'flac')).rejects.toBeInstanceOf(AudioDecodeError)
+  })
+})
+
+describe('MP3 encoder and decoder delay', () => {
+  const beat = { bpm: 90, bars: 8, leadInMs: 620, seed: 21 }
+  // LAME writes its encoder delay (576 samples) in the Info tag; decoders that read it also
+  // drop the 529-sample decoder delay (from memory: LAME technical notes, "gapless playback").
+  it('puts bar 1 of a tagged MP3 where the WAV has it', async () => {
+    const wav = makeFixture('delay-90', beat, 'wav')
+    const mp3 = makeFixture('delay-90', beat, 'mp3')
+    const a = await analyseFile(wav.bytes, 'wav')
+    const b = await analyseFile(mp3.bytes, 'mp3')
+    expect(Math.abs(a.offsetMs - wav.firstDownbeatMs)).toBeLessThanOrEqual(5)
+    expect(Math.abs(b.offsetMs - a.offsetMs)).toBeLessThanOrEqual(5)
+    expect(Math.abs(b.durationMs - a.durationMs)).toBeLessThan(1)
+  })
+
+  it('keeps an untagged MP3 on its decoded timeline: 576 + 529 samples later', async () => {
+    const wav = makeFixture('delay-90', beat, 'wav')
+    const mp3 = makeFixture('delay-90', beat, 'mp3-untagged')
+    const a = await analyseFile(wav.bytes, 'wav')
+    const b = await analyseFile(mp3.bytes, 'mp3')
+    const late = ((576 + 529) / 44_100) * 1000 // ≈ 25.06 ms
+    expect(Math.abs(b.offsetMs - a.offsetMs - late)).toBeLessThanOrEqual(5)
   })
 })
