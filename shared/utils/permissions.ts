@@ -32,6 +32,10 @@ export const PERMISSIONS = {
   'song.delete': ['owner'],
   // comments
   'comment.write': makers,
+  // beats, grid and sections (viewing and playing them is 'song.view')
+  'beat.upload': ['owner', 'producer'],
+  'grid.edit': ['owner', 'producer'],
+  'section.edit': ['owner', 'producer'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS
