@@ -81,7 +81,7 @@ for (const c of cases) {
     musicTempo: Math.round(theirs * 100) / 100, musicTempoMs: Math.round(theirsMs),
   })
 }
-const score = (key) => ({
+const score = key => ({
   acc1: tempoRows.filter(r => acc1(r[key], r.truth)).length / tempoRows.length,
   acc2: tempoRows.filter(r => acc2(r[key], r.truth)).length / tempoRows.length,
   totalMs: tempoRows.reduce((s, r) => s + r[`${key}Ms`], 0),
@@ -89,11 +89,11 @@ const score = (key) => ({
 const summary = { barsmith: score('barsmith'), musicTempo: score('musicTempo') }
 
 console.log('\nBeat ingest (decode + peaks + tempo + bar 1), best of', runs, 'runs in a fresh process each')
-console.table(ingestRows.map(r => ({ file: r.label, 'MB': r.fileMb, 'wall ms (best)': r.wallMsBest, 'wall ms (median)': r.wallMsMedian, 'peak RSS MB': r.maxRssMb, 'BPM': r.bpm, 'bar 1 ms': r.offsetMs })))
+console.table(ingestRows.map(r => ({ 'file': r.label, 'MB': r.fileMb, 'wall ms (best)': r.wallMsBest, 'wall ms (median)': r.wallMsMedian, 'peak RSS MB': r.maxRssMb, 'BPM': r.bpm, 'bar 1 ms': r.offsetMs })))
 console.log('targets for the WAV: ≤ 2000 ms and ≤ 300 MB')
 console.log('\nTempo on the synthesized set (analysis includes peaks and bar 1 for Barsmith; tempo only for music-tempo)')
 console.table(tempoRows)
-console.table({ Barsmith: summary.barsmith, 'music-tempo 1.0.3': summary.musicTempo })
+console.table({ 'Barsmith': summary.barsmith, 'music-tempo 1.0.3': summary.musicTempo })
 
 writeFileSync(resolve(outDir, 'beats.json'), `${JSON.stringify({
   when: new Date().toISOString(),

@@ -60,9 +60,11 @@ export function receiveAudioUpload(event: H3Event, limitBytes: number): Promise<
       req.unpipe(bb)
       out?.destroy()
       void rm(tmpPath, { force: true })
-      // Stop reading: the rest of the body is never consumed, and the connection closes after the reply.
+      // The rest of the body is not stored. After the reply, a bounded "lingering close" (as
+      // web servers do) discards a little more so the client reads the reply before the
+      // socket closes, instead of a reset; then the connection is dropped.
       event.node.res.setHeader('Connection', 'close')
-      event.node.res.once('finish', () => req.destroy())
+      event.node.res.once('finish', () => lingerThenClose(req))
       reject(error)
     }
 
@@ -136,6 +138,24 @@ export function receiveAudioUpload(event: H3Event, limitBytes: number): Promise<
     req.on('aborted', () => fail(refuse(400, 'The upload was interrupted.')))
     req.pipe(bb)
   })
+}
+
+const LINGER_BYTES = 256 * 1024 * 1024
+const LINGER_MS = 2000
+
+function lingerThenClose(req: H3Event['node']['req']) {
+  let discarded = 0
+  const done = () => {
+    clearTimeout(timer)
+    req.destroy()
+  }
+  const timer = setTimeout(done, LINGER_MS)
+  req.on('data', (chunk: Buffer) => {
+    discarded += chunk.length
+    if (discarded > LINGER_BYTES) done()
+  })
+  req.on('end', done)
+  req.resume()
 }
 
 /** The file-system path of a key in the `files` mount (fs driver only). */

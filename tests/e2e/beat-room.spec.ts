@@ -53,6 +53,8 @@ describe('beat room in Chromium', () => {
     const notches = page.locator('[part~="timeline-notch-primary"]')
     await expect.poll(() => notches.count(), { timeout: 10_000 }).toBeGreaterThanOrEqual(12)
     await expect(page.getByTestId('grid-bpm').textContent()).resolves.toBe('90 BPM')
+    // The first bounce sets bar 1 from what was heard (0.6 s lead-in): wait for it before editing.
+    await page.getByTestId('grid-summary').getByText(/bar 1 at 00:00\.(59|60)/).waitFor()
     await screenshot(page, 'beat-room-producer-laptop')
 
     // Fix the grid: a typed tempo, then back to the heard one; bar 1 nudged by a millisecond.

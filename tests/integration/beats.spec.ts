@@ -1,6 +1,7 @@
 // Beats end to end against the built server and PostgreSQL: upload in each accepted format,
 // analysis through the job queue, playback ranges, the grid and sections.
-import { openSync } from 'node:fs'
+import { openSync, readFileSync } from 'node:fs'
+import { request as httpRequest } from 'node:http'
 import { resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { randomFreePort } from '../../scripts/lib/net.mjs'
@@ -119,6 +120,8 @@ describe('upload and analysis', () => {
   })
 })
 
+const rssMb = async (pid: number) => Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'))![1]) / 1024
+
 describe('upload limit', () => {
   let server: Awaited<ReturnType<typeof spawnServer>> | undefined
   let base: string
@@ -139,28 +142,38 @@ describe('upload limit', () => {
     expect(declared.status).toBe(413)
     expect(declared.body.message).toMatch(/1 MB/)
 
-    // A chunked body with no length: refused while it streams, after the first megabyte.
+    // A chunked body with no length, up to 200 MB, sent by a client that reads the reply as
+    // soon as it comes (as curl does): refused while it streams, soon after the first megabyte,
+    // and the server's memory does not grow by anything like the body.
+    const rssBefore = await rssMb(server!.pid!)
     const boundary = 'barsmithlimit'
-    let sent = 0
-    const chunk = Buffer.alloc(64 * 1024, 2)
-    const body = new ReadableStream({
-      start(c) {
-        c.enqueue(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="s.wav"\r\nContent-Type: audio/wav\r\n\r\n`))
-        c.enqueue(smallWav({ bars: 1 }).subarray(0, 4096))
-      },
-      pull(c) {
-        // Up to 50 MB; the server must stop us long before.
-        if (sent > 50 * 1024 * 1024) return c.close()
-        sent += chunk.length
-        c.enqueue(chunk)
-      },
+    const { status, sent } = await new Promise<{ status: number, sent: number }>((resolvePromise, reject) => {
+      let sent = 0
+      const req = httpRequest(`${base}/api/songs/${songId}/beats`, {
+        method: 'POST',
+        headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': limited.cookieHeader, 'transfer-encoding': 'chunked' },
+      })
+      req.on('response', (res) => {
+        resolvePromise({ status: res.statusCode!, sent })
+        res.resume()
+        req.destroy()
+      })
+      req.on('error', reject)
+      req.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="s.wav"\r\nContent-Type: audio/wav\r\n\r\n`)
+      req.write(smallWav({ bars: 1 }).subarray(0, 4096))
+      const chunk = Buffer.alloc(64 * 1024, 2)
+      const pump = () => {
+        while (sent < 200 * 1024 * 1024 && !req.destroyed) {
+          sent += chunk.length
+          if (!req.write(chunk)) return void req.once('drain', pump)
+        }
+        if (!req.destroyed) req.end()
+      }
+      pump()
     })
-    const res = await fetch(`${base}/api/songs/${songId}/beats`, {
-      method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': limited.cookieHeader },
-    } as RequestInit).catch(e => e as Error)
-    if (res instanceof Error) throw res
-    expect(res.status).toBe(413)
-    expect(sent).toBeLessThan(20 * 1024 * 1024)
+    expect(status).toBe(413)
+    expect(sent).toBeLessThan(50 * 1024 * 1024)
+    expect(await rssMb(server!.pid!) - rssBefore).toBeLessThan(40)
     const rows = await sql('SELECT count(*)::int AS n FROM beats WHERE song_id = $1', [songId])
     expect(rows[0].n).toBe(0)
   })
