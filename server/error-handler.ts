@@ -28,6 +28,7 @@ export function classify(error: unknown): { statusCode: number, message: string 
     if (c.code === '22P02' || c.code === '22003' || c.code === '22001') return { statusCode: 400, message: 'A value in the request has the wrong form or size.' }
     if (c.code === '23505') return { statusCode: 409, message: 'That already exists.' }
     if (c.code === '23503') return { statusCode: 409, message: 'That refers to something that no longer exists.' }
+    if (c.code === '23P01') return { statusCode: 409, message: c.constraint === 'sections_no_overlap' ? 'Those bars already belong to another section. Sections may not overlap.' : 'That overlaps with something that already exists.' }
     if (c.code === '23514') return { statusCode: 400, message: `The values break a rule (${c.constraint ?? 'check'}).` }
   }
   return null

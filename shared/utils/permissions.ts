@@ -36,6 +36,10 @@ export const PERMISSIONS = {
   // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
   'lexicon.view': everyone,
   'lexicon.edit': ['owner', 'writer', 'cowriter'],
+  // beats, grid and sections (viewing and playing them is 'song.view')
+  'beat.upload': ['owner', 'producer'],
+  'grid.edit': ['owner', 'producer'],
+  'section.edit': ['owner', 'producer'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS

@@ -3,6 +3,7 @@ import type { Action } from '../../shared/utils/permissions'
 import type { ApiClient } from '../support/http'
 import type { Principal, TestCrew } from '../support/people'
 import type { Method } from '../support/routes'
+import { smallWav, audioForm, uploadBeat, waitForBeat } from '../support/beats'
 
 export interface MatrixContext {
   crew: TestCrew
@@ -32,6 +33,24 @@ export interface MatrixCase {
 
 const email = () => `m-${randomUUID().slice(0, 8)}@example.test`
 const fakeToken = () => randomUUID().replace(/-/g, '').repeat(2)
+// One analysed beat, made once and shared by the read-only beat routes.
+let readyBeat: Promise<{ songId: string, beatId: string }> | undefined
+const sharedBeat = (ctx: MatrixContext) => (readyBeat ??= (async () => {
+  const songId = await ctx.song()
+  const res = await uploadBeat(ctx.crew.as.owner, songId, smallWav())
+  await waitForBeat(ctx.crew.as.owner, songId, res.body.id)
+  return { songId, beatId: res.body.id as string }
+})())
+const songWithSections = async (ctx: MatrixContext, count: number) => {
+  const songId = await ctx.song()
+  const ids: string[] = []
+  for (let i = 0; i < count; i++) {
+    const res = await ctx.crew.as.owner.post(`/api/songs/${songId}/sections`, { kind: 'verse', startBar: 1 + i * 8, endBar: 8 + i * 8 })
+    ids.push(res.body.id)
+  }
+  return { songId, ids }
+}
+
 const emailOf = (ctx: MatrixContext, p: Principal) => (p === 'anonymous' ? email() : ctx.crew.users[p].email)
 
 export const MATRIX: MatrixCase[] = [
@@ -98,4 +117,34 @@ export const MATRIX: MatrixCase[] = [
   { method: 'POST', route: '/api/crews/[crewId]/lexicon', access: 'lexicon.edit', ok: 201, prepare: async () => ({ body: { word: `zq${randomUUID().replace(/[^a-f]/g, '').slice(0, 8)}`, phones: 'Z IY1 K Y UW0' } }) },
   { method: 'PATCH', route: '/api/crews/[crewId]/lexicon/[entryId]', access: 'lexicon.edit', ok: 200, prepare: async ctx => ({ params: { entryId: await ctx.lexiconEntry() }, body: { soundsLike: 'skirt' } }) },
   { method: 'DELETE', route: '/api/crews/[crewId]/lexicon/[entryId]', access: 'lexicon.edit', ok: 204, prepare: async ctx => ({ params: { entryId: await ctx.lexiconEntry() } }) },
+  // beats, grid and sections
+  { method: 'POST', route: '/api/songs/[songId]/beats', access: 'beat.upload', ok: 201, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: audioForm(smallWav({ bars: 2 }), 'matrix.wav') }) },
+  { method: 'GET', route: '/api/songs/[songId]/beats', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await sharedBeat(ctx)).songId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/beats/[beatId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: await sharedBeat(ctx) }) },
+  { method: 'GET', route: '/api/songs/[songId]/beats/[beatId]/audio', access: 'song.view', ok: 200, prepare: async ctx => ({ params: await sharedBeat(ctx) }) },
+  { method: 'GET', route: '/api/songs/[songId]/beats/[beatId]/peaks', access: 'song.view', ok: 200, prepare: async ctx => ({ params: await sharedBeat(ctx) }) },
+  { method: 'PATCH', route: '/api/songs/[songId]/grid', access: 'grid.edit', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { bpm: 92.5, offsetMs: 120 } }) },
+  { method: 'GET', route: '/api/songs/[songId]/sections', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await songWithSections(ctx, 1)).songId } }) },
+  { method: 'POST', route: '/api/songs/[songId]/sections', access: 'section.edit', ok: 201, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { kind: 'hook', startBar: 9, endBar: 16 } }) },
+  {
+    method: 'PATCH', route: '/api/songs/[songId]/sections/[sectionId]', access: 'section.edit', ok: 200,
+    prepare: async (ctx) => {
+      const { songId, ids } = await songWithSections(ctx, 1)
+      return { params: { songId, sectionId: ids[0]! }, body: { label: 'Verse 1', endBar: 16 } }
+    },
+  },
+  {
+    method: 'DELETE', route: '/api/songs/[songId]/sections/[sectionId]', access: 'section.edit', ok: 204,
+    prepare: async (ctx) => {
+      const { songId, ids } = await songWithSections(ctx, 1)
+      return { params: { songId, sectionId: ids[0]! } }
+    },
+  },
+  {
+    method: 'PUT', route: '/api/songs/[songId]/sections/order', access: 'section.edit', ok: 200,
+    prepare: async (ctx) => {
+      const { songId, ids } = await songWithSections(ctx, 2)
+      return { params: { songId }, body: { ids: [...ids].reverse() } }
+    },
+  },
 ]

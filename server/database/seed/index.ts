@@ -4,6 +4,7 @@ import { users } from '../schema'
 import { seedPeople } from './people'
 import { seedSongs } from './songs'
 import { seedLexicon } from './lexicon'
+import { seedBeat } from './beats'
 
 /**
  * Seeds the invented demo crew when the database has no users yet, so it never writes over
@@ -14,7 +15,8 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   if (row!.n > 0) return false
   await db.transaction(async (tx) => {
     const people = await seedPeople(tx, useEnv().DEMO_PASSWORD)
-    await seedSongs(tx, people)
+    const { songId } = await seedSongs(tx, people)
+    await seedBeat(tx, people, songId)
     await seedLexicon(tx, people)
   })
   console.log('[barsmith] seeded the demo crew')

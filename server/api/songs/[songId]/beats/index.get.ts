@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const { song } = await requireSongAccess(event, 'song.view')
+  return listBeats(song.id)
+})
