@@ -3,6 +3,7 @@ import type { Db } from '../../utils/db'
 import { users } from '../schema'
 import { seedPeople } from './people'
 import { seedSongs } from './songs'
+import { seedDrafts } from './drafts'
 
 /**
  * Seeds the invented demo crew when the database has no users yet, so it never writes over
@@ -13,7 +14,8 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   if (row!.n > 0) return false
   await db.transaction(async (tx) => {
     const people = await seedPeople(tx, useEnv().DEMO_PASSWORD)
-    await seedSongs(tx, people)
+    const song = await seedSongs(tx, people)
+    await seedDrafts(tx, people, song)
   })
   console.log('[barsmith] seeded the demo crew')
   return true
