@@ -25,7 +25,13 @@ describe('unsaved work kept in the browser', () => {
   })
 
   it('is reported as not written when the browser refuses', () => {
-    const full: KeyValueStore = { getItem: () => null, setItem: () => { throw new Error('QuotaExceededError') }, removeItem: () => {} }
+    const full: KeyValueStore = {
+      getItem: () => null,
+      setItem: () => {
+        throw new Error('QuotaExceededError')
+      },
+      removeItem: () => {},
+    }
     expect(writePending(full, pending())).toBe(false)
   })
 
