@@ -53,3 +53,14 @@ export interface AltCommentView {
   body: string
   createdAt: string
 }
+
+/**
+ * Figures the prosody engine gives for a line or an alt (POST /api/analysis: syllables,
+ * families); the alts panel shows them when its caller passes them in.
+ */
+export interface AltFigures {
+  syllables?: number | string
+  /** Whether the alt's end word stays in the line's rhyme family. */
+  keepsFamily?: boolean | null
+  family?: string
+}

@@ -13,3 +13,26 @@ export const MergeSaveSchema = z.object({
   doc: z.record(z.string(), z.unknown()).optional(),
   note: z.string().trim().max(LIMITS.noteChars, `A note holds at most ${LIMITS.noteChars} characters.`).optional(),
 })
+
+/** A version as GET /api/drafts/:draftId/versions lists it. */
+export interface VersionListItem {
+  id: string
+  number: number
+  authorId: string | null
+  authorName: string | null
+  kind: string
+  note: string | null
+  createdAt: string
+  parentId: string | null
+}
+
+/** A draft as GET /api/songs/:songId/drafts lists it. */
+export interface DraftListItem {
+  id: string
+  name: string
+  headVersionId: string | null
+  headNumber: number | null
+  isMain: boolean
+  archivedAt: string | null
+  updatedAt: string
+}

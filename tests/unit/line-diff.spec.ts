@@ -2,7 +2,7 @@ import fc from 'fast-check'
 import { diffLines } from 'diff'
 import { describe, expect, it } from 'vitest'
 import { diffLineSteps, diffRows, diffStats, sameLine } from '../../shared/utils/line-diff'
-import { replaceLineText } from '../../shared/utils/doc-edit'
+import { docWithLines, replaceLineText } from '../../shared/utils/doc-edit'
 import { docFromLines, linesFromDoc, type LyricLine } from '../../shared/utils/lyric-doc'
 import { referenceCommon } from '../support/reference-diff'
 
@@ -81,5 +81,16 @@ describe('replaceLineText', () => {
     expect(linesFromDoc(doc)).toEqual(from)
     expect(replaceLineText(doc, 'missing', 'x')).toBeNull()
     expect(linesFromDoc(replaceLineText(doc, 'a', '')!)[0]).toEqual(L('a', 1, ''))
+  })
+})
+
+describe('docWithLines', () => {
+  it('keeps each line in its section block and puts new lines after their neighbour', () => {
+    const doc = docFromLines(from, [{ id: 's1', kind: 'hook', label: 'Hook', startBar: 1, endBar: 2 }, { id: 's2', kind: 'verse', label: 'Verse', startBar: 3, endBar: 8 }])
+    const edited = [from[0]!, L('n', 2, 'new in the hook'), from[1]!, { ...from[2]!, text: 'changed' }, from[4]!]
+    const next = docWithLines(doc, edited)
+    expect(linesFromDoc(next)).toEqual(edited)
+    expect(next.content.map(b => [b.attrs.label, b.content!.map(n => n.attrs.lineId)])).toEqual([['Hook', ['a', 'n', 'b']], ['Verse', ['c', 'e']]])
+    expect(linesFromDoc(docWithLines(null, edited))).toEqual(edited)
   })
 })
