@@ -131,3 +131,12 @@ describe('drafts', () => {
     expect((await crew.as.writer.patch(`/api/drafts/${a.id}`, { name: '' })).status).toBe(400)
   })
 })
+
+describe('drafts made at once', () => {
+  it('the first drafts of a song, created concurrently, all succeed and exactly one is main', async () => {
+    const song = (await crew.as.writer.post(`/api/crews/${crew.crewId}/songs`, { title: 'Rush' })).body.id
+    const made = await Promise.all(Array.from({ length: 8 }, (_, i) => (i % 2 ? crew.as.writer : crew.as.owner).post(`/api/songs/${song}/drafts`, { name: `Rush ${i}` })))
+    expect(made.map(r => r.status)).toEqual(Array(8).fill(201))
+    expect(made.filter(r => r.body.isMain)).toHaveLength(1)
+  })
+})
