@@ -9,7 +9,7 @@ import { randomFreePort } from '../scripts/lib/net.mjs'
 import { spawnServer, stopChild } from '../scripts/lib/processes.mjs'
 import { dataDir, root } from '../scripts/lib/paths.mjs'
 
-const WRITERS = 20
+const WRITERS = Number(process.env.BENCH_WRITERS || 20)
 const SAVES_EACH = 25
 const CONTENDED_SAVES_EACH = 8
 const EVENTS = 100

@@ -38,6 +38,9 @@ export const PERMISSIONS = {
   'alt.vote': ['owner', 'producer', 'writer', 'cowriter'],
   'alt.comment': ['owner', 'producer', 'writer', 'cowriter'],
   'alt.decide': ['owner', 'writer'],
+  // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
+  'lexicon.view': everyone,
+  'lexicon.edit': ['owner', 'writer', 'cowriter'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS

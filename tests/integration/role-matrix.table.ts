@@ -21,6 +21,7 @@ export interface MatrixContext {
   alt: () => Promise<{ songId: string, draftId: string, versionId: string, altId: string }>
   /** A save by `p` (else the writer) kept aside, and the head it was refused against. */
   keptAside: (p: Principal) => Promise<{ sideSaveId: string, headVersionId: string }>
+  lexiconEntry: () => Promise<string>
 }
 
 export interface MatrixCase {
@@ -31,7 +32,7 @@ export interface MatrixCase {
   /** Status for a principal that is allowed. */
   ok: number
   /** Route parameters and body for one call by `principal`; may make fresh rows or a fresh client. */
-  prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, body?: unknown, client?: ApiClient }>
+  prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, query?: Record<string, string>, body?: unknown, client?: ApiClient }>
 }
 
 const email = () => `m-${randomUUID().slice(0, 8)}@example.test`
@@ -117,4 +118,11 @@ export const MATRIX: MatrixCase[] = [
   { method: 'GET', route: '/api/songs/[songId]/presence', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
   { method: 'GET', route: '/api/notifications', access: 'user', ok: 200 },
   { method: 'POST', route: '/api/notifications/read', access: 'user', ok: 200, prepare: async () => ({ body: { all: true } }) },
+  // prosody: analysis, rhyme finder, crew lexicon
+  { method: 'POST', route: '/api/analysis', access: 'user', ok: 200, prepare: async () => ({ body: { lines: [{ id: 'a', bar: 1, text: 'night bus home' }] } }) },
+  { method: 'GET', route: '/api/rhymes', access: 'user', ok: 200, prepare: async () => ({ query: { q: 'night' } }) },
+  { method: 'GET', route: '/api/crews/[crewId]/lexicon', access: 'lexicon.view', ok: 200 },
+  { method: 'POST', route: '/api/crews/[crewId]/lexicon', access: 'lexicon.edit', ok: 201, prepare: async () => ({ body: { word: `zq${randomUUID().replace(/[^a-f]/g, '').slice(0, 8)}`, phones: 'Z IY1 K Y UW0' } }) },
+  { method: 'PATCH', route: '/api/crews/[crewId]/lexicon/[entryId]', access: 'lexicon.edit', ok: 200, prepare: async ctx => ({ params: { entryId: await ctx.lexiconEntry() }, body: { soundsLike: 'skirt' } }) },
+  { method: 'DELETE', route: '/api/crews/[crewId]/lexicon/[entryId]', access: 'lexicon.edit', ok: 204, prepare: async ctx => ({ params: { entryId: await ctx.lexiconEntry() } }) },
 ]
