@@ -8,6 +8,7 @@ import { altComments, alts, altVotes, drafts, songs, users, versions, type Alt, 
 import type { DbOrTx } from './db'
 import type { SignedInUser } from './access'
 import { notifyAltDecided, notifyLineWriter } from './notifications'
+import { altFigures } from './alt-figures'
 
 /** Loads the alt behind the `altId` route parameter and checks `action` in its song's crew. */
 export async function requireAltAccess(event: H3Event, action: Action, param = 'altId') {
@@ -58,6 +59,17 @@ export async function listAlts(db: DbOrTx, draftId: string, userId: string, filt
     decidedAt: r.decidedAt?.toISOString() ?? null,
     myVote: r.myVote === 1 || r.myVote === -1 ? r.myVote : null,
   }))
+}
+
+/**
+ * Adds the prosody engine's figures to listed alts: syllables, and whether each open alt
+ * keeps its line's rhyme family in the draft's head (with the crew's lexicon).
+ */
+export async function withAltFigures(db: DbOrTx, draft: Pick<Draft, 'headVersionId'>, crewId: string, views: AltView[]): Promise<AltView[]> {
+  if (!views.some(v => v.status === 'open')) return views.map(v => ({ ...v, figures: null, lineFigures: null }))
+  const [head] = draft.headVersionId ? await db.select({ lines: versions.lines }).from(versions).where(eq(versions.id, draft.headVersionId)) : []
+  const figures = altFigures(head?.lines ?? [], views, await loadLexicon(crewId))
+  return views.map(v => ({ ...v, figures: figures[v.id] ?? null, lineFigures: figures[`line:${v.lineId}`] ?? null }))
 }
 
 function conflict(message: string) {

@@ -43,6 +43,10 @@ export interface AltView {
   down: number
   myVote: -1 | 1 | null
   commentCount: number
+  /** From the prosody engine, for open alts: the alt's syllables and whether it keeps the line's family. */
+  figures?: AltFigures | null
+  /** The same figures for the line as the head has it. */
+  lineFigures?: AltFigures | null
 }
 
 export interface AltCommentView {

@@ -62,6 +62,9 @@ describe('alts live, as two people at once', () => {
     const writerPanel = wr.page.getByTestId('alts-panel-e2')
     await writerPanel.getByText('Counting my steps till the sky turns to blue').waitFor()
     await writerPanel.getByText('by Theo Ruiz').waitFor()
+    // The prosody engine's figures beside the alt: its syllables and the rhyme family.
+    await writerPanel.getByTestId('alt-syllables').waitFor()
+    await writerPanel.getByTestId('line-figures').waitFor()
     await screenshot(wr.page, 'alts-writer-sees-alt')
     await writerPanel.getByRole('button', { name: 'Up' }).click()
     await writerPanel.getByRole('button', { name: 'Up' }).and(wr.page.locator('[aria-pressed="true"]')).waitFor()

@@ -34,6 +34,10 @@ describe('alts', () => {
       lineId: 'a2', lineText: LINES[1]!.text, text: 'I read every window on the long way home', status: 'open',
       authorId: crew.users.cowriter.id, up: 0, down: 0, myVote: null, commentCount: 0,
     })
+    // Figures from the prosody engine (CMU Pronouncing Dictionary): "every" has 3 or 2
+    // syllables, so the alt counts 11–12 and the line 10–11; "home" leaves the code/road family.
+    expect(proposed.body.figures).toEqual({ syllables: '11–12', keepsFamily: false })
+    expect(proposed.body.lineFigures).toMatchObject({ syllables: '10–11', family: expect.any(String) })
     const save = await crew.as.cowriter.post(`/api/drafts/${draftId}/versions`, { baseVersionId: headId, lines: LINES.map(l => (l.id === 'a2' ? { ...l, text: 'sneaked in' } : l)) })
     expect(save.status).toBe(403)
     expect((await crew.as.cowriter.post(`/api/versions/${headId}/restore`)).status).toBe(403)
