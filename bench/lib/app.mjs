@@ -31,6 +31,8 @@ export async function startBenchApp({ extraEnv = {} } = {}) {
   return {
     baseUrl,
     databaseUrl,
+    /** The server's environment, to start more instances on the same database. */
+    env,
     serverPid: server.pid,
     async stop() {
       await stopChild(server)

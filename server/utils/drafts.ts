@@ -34,10 +34,11 @@ export async function requireVersionAccess(event: H3Event, action: Action, param
 
 /**
  * The document to store with `lines`: the client's own when it sends one (it must parse as a
- * lyric document and say exactly what `lines` say), else one derived from the lines.
+ * lyric document and say exactly what `lines` say), else one derived from the lines and the
+ * song's sections.
  */
-export function documentFor(lines: LyricLine[], doc: unknown): LyricDoc {
-  if (doc === undefined) return docFromLines(lines)
+export async function documentFor(songId: string, lines: LyricLine[], doc: unknown): Promise<LyricDoc> {
+  if (doc === undefined) return docFromLines(lines, await listSections(songId))
   if (JSON.stringify(doc).length > LIMITS.docBytes) {
     throw createError({ statusCode: 413, message: `The document is larger than ${LIMITS.docBytes / 1_000_000} MB.` })
   }

@@ -19,6 +19,10 @@ const EnvSchema = z.object({
   BARSMITH_SEED_DEMO: z.enum(['0', '1']).default('0'),
   DEMO_PASSWORD: z.string().min(10).default('barsmith-demo'),
   BARSMITH_WORKERS: z.enum(['0', '1']).default('1'),
+  // Live updates and alt mail
+  LIVE_HEARTBEAT_MS: z.coerce.number().int().min(200).max(120_000).default(15_000),
+  ALT_MAIL_WINDOW_MS: z.coerce.number().int().min(100).max(86_400_000).default(300_000),
+  ALT_MAIL_MAX_WAIT_MS: z.coerce.number().int().min(100).max(86_400_000).default(1_800_000),
 })
 
 export type Env = z.infer<typeof EnvSchema>

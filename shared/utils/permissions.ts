@@ -33,6 +33,11 @@ export const PERMISSIONS = {
   'draft.create': ['owner', 'writer'],
   'draft.edit': ['owner', 'writer'],
   'version.save': ['owner', 'writer'],
+  // alts: proposing never touches the draft itself; taking or passing one is a writer's call
+  'alt.propose': ['owner', 'writer', 'cowriter'],
+  'alt.vote': ['owner', 'producer', 'writer', 'cowriter'],
+  'alt.comment': ['owner', 'producer', 'writer', 'cowriter'],
+  'alt.decide': ['owner', 'writer'],
   // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
   'lexicon.view': everyone,
   'lexicon.edit': ['owner', 'writer', 'cowriter'],

@@ -56,6 +56,17 @@ beforeAll(async () => {
       return res.body.data.sideSaveId as string
     },
     freshClient: async (p: Principal) => (p === 'anonymous' ? new ApiClient() : signedIn(crew.users[p])),
+    async alt() {
+      const d = await this.draft()
+      const res = await crew.as.owner.post(`/api/drafts/${d.draftId}/alts`, { lineId: 'm1', text: 'an alt for the matrix' })
+      return { ...d, altId: res.body.id as string }
+    },
+    async keptAside(p: Principal) {
+      const { draftId, versionId } = await this.draft()
+      const author = p !== 'anonymous' && p !== 'outsider' && can(p, 'version.save') ? crew.as[p] : crew.as.writer
+      const res = await author.post(`/api/drafts/${draftId}/versions`, { baseVersionId: null, lines: [{ id: 's', bar: 1, text: 'late' }] })
+      return { sideSaveId: res.body.data.sideSaveId as string, headVersionId: versionId }
+    },
     async lexiconEntry() {
       const word = `zq${randomUUID().replace(/[^a-f]/g, '').slice(0, 8)}`
       const res = await crew.as.owner.post(`/api/crews/${crew.crewId}/lexicon`, { word, phones: 'Z IY1 K W AH0' })

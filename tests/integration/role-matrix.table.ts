@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Action } from '../../shared/utils/permissions'
 import type { ApiClient } from '../support/http'
+import { StreamProbe } from '../support/sse'
 import type { Principal, TestCrew } from '../support/people'
 import type { Method } from '../support/routes'
 import { smallWav, audioForm, uploadBeat, waitForBeat } from '../support/beats'
@@ -17,6 +18,10 @@ export interface MatrixContext {
   /** A save by `p` refused as stale (kept aside); by the writer when `p` may not save. */
   sideSave: (p: Principal) => Promise<string>
   freshClient: (p: Principal) => Promise<ApiClient>
+  /** A new draft (one version, line m1) with an open alt on m1 by the owner. */
+  alt: () => Promise<{ songId: string, draftId: string, versionId: string, altId: string }>
+  /** A save by `p` (else the writer) kept aside, and the head it was refused against. */
+  keptAside: (p: Principal) => Promise<{ sideSaveId: string, headVersionId: string }>
   lexiconEntry: () => Promise<string>
 }
 
@@ -110,6 +115,28 @@ export const MATRIX: MatrixCase[] = [
   { method: 'GET', route: '/api/versions/[versionId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
   { method: 'POST', route: '/api/versions/[versionId]/restore', access: 'version.save', ok: 201, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
   { method: 'PATCH', route: '/api/side-saves/[sideSaveId]', access: 'version.save', ok: 200, prepare: async (ctx, p) => ({ params: { sideSaveId: await ctx.sideSave(p) }, body: {} }) },
+
+  // history, merges, alts, live, notifications
+  { method: 'GET', route: '/api/versions/[versionId]/diff', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  {
+    method: 'POST', route: '/api/side-saves/[sideSaveId]/merge', access: 'version.save', ok: 201,
+    prepare: async (ctx, p) => {
+      const kept = await ctx.keptAside(p)
+      return { params: { sideSaveId: kept.sideSaveId }, body: { baseVersionId: kept.headVersionId, lines: [{ id: 'm1', bar: 1, text: 'merged' }] } }
+    },
+  },
+  { method: 'GET', route: '/api/drafts/[draftId]/alts', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { draftId: (await ctx.alt()).draftId } }) },
+  { method: 'POST', route: '/api/drafts/[draftId]/alts', access: 'alt.propose', ok: 201, prepare: async ctx => ({ params: { draftId: (await ctx.draft()).draftId }, body: { lineId: 'm1', text: 'a matrix alt' } }) },
+  { method: 'GET', route: '/api/alts/[altId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { altId: (await ctx.alt()).altId } }) },
+  { method: 'PUT', route: '/api/alts/[altId]/vote', access: 'alt.vote', ok: 200, prepare: async ctx => ({ params: { altId: (await ctx.alt()).altId }, body: { value: 1 } }) },
+  { method: 'GET', route: '/api/alts/[altId]/comments', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { altId: (await ctx.alt()).altId } }) },
+  { method: 'POST', route: '/api/alts/[altId]/comments', access: 'alt.comment', ok: 201, prepare: async ctx => ({ params: { altId: (await ctx.alt()).altId }, body: { body: 'a matrix comment' } }) },
+  { method: 'POST', route: '/api/alts/[altId]/take', access: 'alt.decide', ok: 201, prepare: async ctx => ({ params: { altId: (await ctx.alt()).altId } }) },
+  { method: 'POST', route: '/api/alts/[altId]/pass', access: 'alt.decide', ok: 200, prepare: async ctx => ({ params: { altId: (await ctx.alt()).altId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/events', access: 'song.view', ok: 200, prepare: async (ctx, p) => ({ params: { songId: await ctx.song() }, client: new StreamProbe(ctx.crew.as[p]) }) },
+  { method: 'GET', route: '/api/songs/[songId]/presence', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
+  { method: 'GET', route: '/api/notifications', access: 'user', ok: 200 },
+  { method: 'POST', route: '/api/notifications/read', access: 'user', ok: 200, prepare: async () => ({ body: { all: true } }) },
   // prosody: analysis, rhyme finder, crew lexicon
   { method: 'POST', route: '/api/analysis', access: 'user', ok: 200, prepare: async () => ({ body: { lines: [{ id: 'a', bar: 1, text: 'night bus home' }] } }) },
   { method: 'GET', route: '/api/rhymes', access: 'user', ok: 200, prepare: async () => ({ query: { q: 'night' } }) },

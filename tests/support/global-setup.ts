@@ -41,6 +41,9 @@ export default async function setup(project: TestProject) {
     ...serverEnv({ databaseUrl, secrets, appUrl: baseUrl, smtpPort: smtp.port, mailboxDir, storageDir }),
     // Tests stand in for many clients behind one proxy: each sends its own X-Forwarded-For.
     TRUST_PROXY: '1',
+    // Short live heartbeats and alt-mail batching windows, so tests see them within seconds.
+    LIVE_HEARTBEAT_MS: '1000',
+    ALT_MAIL_WINDOW_MS: '2000',
   }
   const log = openSync(resolve(runDir, 'server.log'), 'a')
   const server = await spawnServer({ port, env, output: log })

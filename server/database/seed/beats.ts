@@ -31,8 +31,8 @@ export async function seedBeat(tx: DbOrTx, people: DemoPeople, songId: string) {
   await tx.update(songs).set({ bpm: analysis.bpm, offsetMs: analysis.offsetMs }).where(eq(songs.id, songId))
   const layout = [
     { kind: 'intro', label: '', startBar: 1, endBar: 4 },
-    { kind: 'verse', label: 'Verse 1', startBar: 5, endBar: 20 },
-    { kind: 'hook', label: '', startBar: 21, endBar: 28 },
+    { kind: 'hook', label: '', startBar: 5, endBar: 12 },
+    { kind: 'verse', label: 'Verse 1', startBar: 13, endBar: 28 },
     { kind: 'outro', label: '', startBar: 29, endBar: 32 },
   ] as const
   await tx.insert(sections).values(layout.map((s, position) => ({ ...s, songId, position, createdBy: people.producer.id })))

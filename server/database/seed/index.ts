@@ -3,6 +3,7 @@ import type { Db } from '../../utils/db'
 import { users } from '../schema'
 import { seedPeople } from './people'
 import { seedSongs } from './songs'
+import { seedDrafts } from './drafts'
 import { seedLexicon } from './lexicon'
 import { seedBeat } from './beats'
 
@@ -15,8 +16,9 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   if (row!.n > 0) return false
   await db.transaction(async (tx) => {
     const people = await seedPeople(tx, useEnv().DEMO_PASSWORD)
-    const { songId } = await seedSongs(tx, people)
-    await seedBeat(tx, people, songId)
+    const song = await seedSongs(tx, people)
+    await seedBeat(tx, people, song.songId)
+    await seedDrafts(tx, people, song)
     await seedLexicon(tx, people)
   })
   console.log('[barsmith] seeded the demo crew')

@@ -3,7 +3,7 @@ import { VersionSaveSchema } from '../../../../../shared/schemas/drafts'
 export default defineEventHandler(async (event) => {
   const { draft, user } = await requireDraftAccess(event, 'version.save')
   const body = await validBody(event, VersionSaveSchema)
-  const doc = documentFor(body.lines, body.doc)
+  const doc = await documentFor(draft.songId, body.lines, body.doc)
   const result = await saveVersion(useDb(), {
     draft, authorId: user.id, baseVersionId: body.baseVersionId, lines: body.lines, doc, note: body.note, kind: body.autosave ? 'autosave' : 'save',
   })

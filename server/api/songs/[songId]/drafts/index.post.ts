@@ -1,6 +1,6 @@
 import { and, count, eq } from 'drizzle-orm'
 import { DraftCreateSchema } from '../../../../../shared/schemas/drafts'
-import { drafts, versions } from '../../../../database/schema'
+import { drafts, songs, versions } from '../../../../database/schema'
 
 export default defineEventHandler(async (event) => {
   const { song, user } = await requireSongAccess(event, 'draft.create')
@@ -15,6 +15,8 @@ export default defineEventHandler(async (event) => {
     source = row
   }
   const draft = await db.transaction(async (tx) => {
+    // Locks the song so two first drafts made at once cannot both become main.
+    await tx.select({ id: songs.id }).from(songs).where(eq(songs.id, song.id)).for('update')
     const [existing] = await tx.select({ n: count() }).from(drafts).where(eq(drafts.songId, song.id))
     const [created] = await tx.insert(drafts).values({ songId: song.id, name, createdBy: user.id, isMain: existing!.n === 0 }).returning()
     if (!source) return { ...created!, headVersionId: null }
