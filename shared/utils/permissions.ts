@@ -33,6 +33,14 @@ export const PERMISSIONS = {
   'draft.create': ['owner', 'writer'],
   'draft.edit': ['owner', 'writer'],
   'version.save': ['owner', 'writer'],
+  // finishing: lines out, sign-off, seal, split sheet (reading them is song.view)
+  'line.markOut': ['owner', 'producer', 'writer'],
+  'signoff.request': ['owner', 'writer'],
+  'signoff.signers': ['owner'],
+  'signoff.sign': ['owner', 'producer', 'writer', 'cowriter'],
+  'seal.unseal': ['owner'],
+  'split.edit': ['owner', 'writer'],
+  'split.confirm': ['owner', 'producer', 'writer', 'cowriter'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS

@@ -3,6 +3,8 @@ import type { Action } from '../../shared/utils/permissions'
 import type { ApiClient } from '../support/http'
 import type { Principal, TestCrew } from '../support/people'
 import type { Method } from '../support/routes'
+import { can as canDo } from '../../shared/utils/permissions'
+import { draftWithLines, requestSignoff, sealedSong } from '../support/finish'
 
 export interface MatrixContext {
   crew: TestCrew
@@ -90,4 +92,56 @@ export const MATRIX: MatrixCase[] = [
   { method: 'GET', route: '/api/versions/[versionId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
   { method: 'POST', route: '/api/versions/[versionId]/restore', access: 'version.save', ok: 201, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
   { method: 'PATCH', route: '/api/side-saves/[sideSaveId]', access: 'version.save', ok: 200, prepare: async (ctx, p) => ({ params: { sideSaveId: await ctx.sideSave(p) }, body: {} }) },
+
+  // finishing: lines out, sign-off, seals, sheet exports, split sheet, activity
+  {
+    method: 'POST', route: '/api/drafts/[draftId]/out-marks', access: 'line.markOut', ok: 201,
+    prepare: async (ctx) => {
+      const d = await ctx.draft()
+      return { params: { draftId: d.draftId }, body: { baseVersionId: d.versionId, lines: [{ id: 'm1', bar: 1, text: 'v1', out: true }] } }
+    },
+  },
+  { method: 'GET', route: '/api/songs/[songId]/signoffs', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
+  { method: 'POST', route: '/api/versions/[versionId]/signoffs', access: 'signoff.request', ok: 201, prepare: async ctx => ({ params: { versionId: (await draftWithLines(ctx.crew)).versionId }, body: {} }) },
+  { method: 'GET', route: '/api/signoffs/[signoffId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { signoffId: await requestSignoff(ctx.crew.as.writer, (await draftWithLines(ctx.crew)).versionId) } }) },
+  {
+    method: 'PUT', route: '/api/signoffs/[signoffId]/signers', access: 'signoff.signers', ok: 200,
+    prepare: async ctx => ({ params: { signoffId: await requestSignoff(ctx.crew.as.writer, (await draftWithLines(ctx.crew)).versionId) }, body: { userIds: [ctx.crew.users.writer.id, ctx.crew.users.cowriter.id] } }),
+  },
+  {
+    method: 'POST', route: '/api/signoffs/[signoffId]/decision', access: 'signoff.sign', ok: 200,
+    prepare: async (ctx, p) => {
+      const signoffId = await requestSignoff(ctx.crew.as.writer, (await draftWithLines(ctx.crew)).versionId)
+      // The principal is listed (when its role may sign) beside a second signer, so one approval does not seal.
+      const signers = new Set([ctx.crew.users.producer.id, ctx.crew.users.cowriter.id])
+      if (p !== 'anonymous' && p !== 'outsider' && canDo(p, 'signoff.sign')) signers.add(ctx.crew.users[p].id)
+      await ctx.crew.as.owner.put(`/api/signoffs/${signoffId}/signers`, { userIds: [...signers] })
+      return { params: { signoffId }, body: { decision: 'approve', comment: '' } }
+    },
+  },
+  {
+    method: 'POST', route: '/api/signoffs/[signoffId]/withdraw', access: 'signoff.request', ok: 200,
+    prepare: async (ctx, p) => {
+      const asker = p === 'owner' ? ctx.crew.as.owner : ctx.crew.as.writer
+      return { params: { signoffId: await requestSignoff(asker, (await draftWithLines(ctx.crew)).versionId) } }
+    },
+  },
+  { method: 'POST', route: '/api/seals/[sealId]/unseal', access: 'seal.unseal', ok: 201, prepare: async ctx => ({ params: { sealId: (await sealedSong(ctx.crew)).sealId }, body: { reason: 'A late fix to the hook' } }) },
+  { method: 'GET', route: '/api/songs/[songId]/seal', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.txt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.vtt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.pdf', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/split', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
+  { method: 'PUT', route: '/api/songs/[songId]/split', access: 'split.edit', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { lines: [{ name: 'Outside Contributor', share: '100.00' }] } }) },
+  {
+    method: 'POST', route: '/api/songs/[songId]/split/confirm', access: 'split.confirm', ok: 200,
+    prepare: async (ctx, p) => {
+      const songId = await ctx.song()
+      const listed = p !== 'anonymous' && p !== 'outsider' && canDo(p, 'split.confirm') ? ctx.crew.users[p].id : ctx.crew.users.writer.id
+      await ctx.crew.as.owner.put(`/api/songs/${songId}/split`, { lines: [{ userId: listed, name: 'Listed member', share: 100 }] })
+      return { params: { songId }, body: { confirm: true } }
+    },
+  },
+  { method: 'GET', route: '/api/songs/[songId]/activity', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
 ]
