@@ -111,8 +111,14 @@ const sealSource: Source = async (db, songId, limit) => {
  */
 export const ACTIVITY_SOURCES: Source[] = [versionSource, signoffSource, sealSource]
 
+// Steps at the same moment (the last approval and its seal) are shown in the order they happen.
+const STEP: Record<ActivityKind, number> = {
+  'version': 1, 'alt.taken': 1, 'alt.passed': 1, 'signoff.requested': 2, 'signoff.approved': 3, 'signoff.declined': 3,
+  'signoff.cancelled': 4, 'signoff.withdrawn': 4, 'seal': 5, 'unseal': 6,
+}
+
 /** The song's timeline, newest first. */
 export async function songActivity(db: DbOrTx, songId: string, limit = 200): Promise<ActivityEntry[]> {
   const all = (await Promise.all(ACTIVITY_SOURCES.map(s => s(db, songId, limit)))).flat()
-  return all.sort((a, b) => (a.at < b.at ? 1 : a.at > b.at ? -1 : 0)).slice(0, limit)
+  return all.sort((a, b) => (a.at < b.at ? 1 : a.at > b.at ? -1 : STEP[b.kind] - STEP[a.kind])).slice(0, limit)
 }

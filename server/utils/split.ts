@@ -41,7 +41,7 @@ export function splitSnapshot(rows: readonly SplitRow[]): SealSplitLine[] {
 /**
  * Replaces the song's split sheet. The total must be exactly 100.00 % (400 naming the total
  * otherwise); members must belong to the crew. A member's confirmation is kept only when
- * their own line (share and role) is unchanged.
+ * their own line (name, role and share) is unchanged.
  */
 export async function replaceSplitLines(db: DbOrTx, songId: string, crewId: string, input: SplitLineInput[]) {
   const problem = splitTotalProblem(input.map(l => ({ shareBp: l.share })))
@@ -61,7 +61,7 @@ export async function replaceSplitLines(db: DbOrTx, songId: string, crewId: stri
     await tx.delete(splitLines).where(eq(splitLines.songId, songId))
     await tx.insert(splitLines).values(input.map((l, i) => {
       const prior = l.userId ? kept.get(l.userId) : undefined
-      const same = prior && prior.shareBp === l.share && (prior.role ?? null) === (l.role ?? null)
+      const same = prior && prior.shareBp === l.share && prior.name === l.name && (prior.role ?? null) === (l.role ?? null)
       return {
         songId,
         userId: l.userId ?? null,

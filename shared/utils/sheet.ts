@@ -5,7 +5,7 @@
  */
 import { formatClock, formatTimestamp, lyricBarStart, roundMs, type BarGrid, type ExactMs } from './bar-time'
 import type { LyricDoc, LyricLine } from './lyric-doc'
-import { formatShare, SPLIT_CAUTION } from './shares'
+import { formatShare } from './shares'
 
 export interface Segment { text: string, adlib: boolean }
 
@@ -139,7 +139,7 @@ export function creditLine(model: Pick<SheetModel, 'credits'>): string {
 }
 
 export function gridLine(grid: BarGrid): string {
-  return `${grid.bpm} BPM · ${grid.beatsPerBar} beats per bar${grid.feel === 'half' ? ' · half-time feel' : ''} · bar 1 at ${formatTimestamp(Math.round(grid.offsetMs))}`
+  return `${grid.bpm} BPM · ${grid.beatsPerBar} beats per bar${grid.feel === 'half' ? ' · half-time feel' : ''} · bar 1 at ${(grid.offsetMs / 1000).toFixed(3)} s`
 }
 
 // "-->" ends a cue's timing line and may not appear in headers, notes or identifiers (W3C WebVTT §4).
@@ -178,7 +178,7 @@ export function renderText(model: SheetModel): string {
   if (model.split?.lines.length) {
     out.push('SPLIT SHEET')
     for (const l of model.split.lines) out.push(`  ${l.name}${l.role ? ` (${l.role})` : ''}  ${formatShare(l.shareBp)} %${l.member ? (l.confirmed ? '  confirmed' : '  not yet confirmed') : ''}`)
-    out.push(`  Total ${formatShare(model.split.totalBp)} %`, `  ${SPLIT_CAUTION}`, '')
+    out.push(`  Total ${formatShare(model.split.totalBp)} %`, `  ${model.caution}`, '')
   }
   if (model.seal) out.push(`Signed off by ${model.seal.signers.map(s => s.name).join(', ')}.`)
   return `${out.join('\n').trimEnd()}\n`

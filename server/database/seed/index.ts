@@ -3,6 +3,7 @@ import type { Db } from '../../utils/db'
 import { users } from '../schema'
 import { seedPeople } from './people'
 import { seedSongs } from './songs'
+import { seedFinishedSong } from './finished'
 
 /**
  * Seeds the invented demo crew when the database has no users yet, so it never writes over
@@ -14,6 +15,7 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   await db.transaction(async (tx) => {
     const people = await seedPeople(tx, useEnv().DEMO_PASSWORD)
     await seedSongs(tx, people)
+    await seedFinishedSong(tx, people)
   })
   console.log('[barsmith] seeded the demo crew')
   return true
