@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import type { Action } from '../../shared/utils/permissions'
+import type { Action, Role } from '../../shared/utils/permissions'
 import type { ApiClient } from '../support/http'
 import type { Principal, TestCrew } from '../support/people'
 import type { Method } from '../support/routes'
@@ -30,6 +30,19 @@ export interface MatrixCase {
   /** Route parameters and body for one call by `principal`; may make fresh rows or a fresh client. */
   prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, body?: unknown, client?: ApiClient }>
 }
+
+const allowed = (p: Principal, action: Action) => p !== 'anonymous' && p !== 'outsider' && canDo(p, action)
+const freshSignoff = async (ctx: MatrixContext, asker: 'writer' | 'owner' = 'writer') => requestSignoff(ctx.crew.as[asker], (await draftWithLines(ctx.crew)).versionId)
+
+/** Rows made once per run and shared by the routes that only read them. */
+const shared = (() => {
+  let signoff: Promise<{ songId: string, signoffId: string }> | undefined
+  let seal: ReturnType<typeof sealedSong> | undefined
+  return {
+    signoff: (ctx: MatrixContext) => (signoff ??= draftWithLines(ctx.crew).then(async d => ({ songId: d.songId, signoffId: await requestSignoff(ctx.crew.as.writer, d.versionId) }))),
+    seal: (ctx: MatrixContext) => (seal ??= sealedSong(ctx.crew)),
+  }
+})()
 
 const email = () => `m-${randomUUID().slice(0, 8)}@example.test`
 const fakeToken = () => randomUUID().replace(/-/g, '').repeat(2)
@@ -93,7 +106,9 @@ export const MATRIX: MatrixCase[] = [
   { method: 'POST', route: '/api/versions/[versionId]/restore', access: 'version.save', ok: 201, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
   { method: 'PATCH', route: '/api/side-saves/[sideSaveId]', access: 'version.save', ok: 200, prepare: async (ctx, p) => ({ params: { sideSaveId: await ctx.sideSave(p) }, body: {} }) },
 
-  // finishing: lines out, sign-off, seals, sheet exports, split sheet, activity
+  // finishing: lines out, sign-off, seals, sheet exports, split sheet, activity. Rows that a
+  // principal only reads, or is refused, are made once; each allowed change gets fresh ones
+  // (every sign-off and seal sends mail, so the matrix keeps their number down).
   {
     method: 'POST', route: '/api/drafts/[draftId]/out-marks', access: 'line.markOut', ok: 201,
     prepare: async (ctx) => {
@@ -101,47 +116,47 @@ export const MATRIX: MatrixCase[] = [
       return { params: { draftId: d.draftId }, body: { baseVersionId: d.versionId, lines: [{ id: 'm1', bar: 1, text: 'v1', out: true }] } }
     },
   },
-  { method: 'GET', route: '/api/songs/[songId]/signoffs', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/signoffs', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.signoff(ctx)).songId } }) },
   { method: 'POST', route: '/api/versions/[versionId]/signoffs', access: 'signoff.request', ok: 201, prepare: async ctx => ({ params: { versionId: (await draftWithLines(ctx.crew)).versionId }, body: {} }) },
-  { method: 'GET', route: '/api/signoffs/[signoffId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { signoffId: await requestSignoff(ctx.crew.as.writer, (await draftWithLines(ctx.crew)).versionId) } }) },
+  { method: 'GET', route: '/api/signoffs/[signoffId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { signoffId: (await shared.signoff(ctx)).signoffId } }) },
   {
     method: 'PUT', route: '/api/signoffs/[signoffId]/signers', access: 'signoff.signers', ok: 200,
-    prepare: async ctx => ({ params: { signoffId: await requestSignoff(ctx.crew.as.writer, (await draftWithLines(ctx.crew)).versionId) }, body: { userIds: [ctx.crew.users.writer.id, ctx.crew.users.cowriter.id] } }),
+    prepare: async (ctx, p) => ({ params: { signoffId: allowed(p, 'signoff.signers') ? await freshSignoff(ctx) : (await shared.signoff(ctx)).signoffId }, body: { userIds: [ctx.crew.users.writer.id, ctx.crew.users.cowriter.id] } }),
   },
   {
     method: 'POST', route: '/api/signoffs/[signoffId]/decision', access: 'signoff.sign', ok: 200,
     prepare: async (ctx, p) => {
-      const signoffId = await requestSignoff(ctx.crew.as.writer, (await draftWithLines(ctx.crew)).versionId)
-      // The principal is listed (when its role may sign) beside a second signer, so one approval does not seal.
-      const signers = new Set([ctx.crew.users.producer.id, ctx.crew.users.cowriter.id])
-      if (p !== 'anonymous' && p !== 'outsider' && canDo(p, 'signoff.sign')) signers.add(ctx.crew.users[p].id)
-      await ctx.crew.as.owner.put(`/api/signoffs/${signoffId}/signers`, { userIds: [...signers] })
+      if (!allowed(p, 'signoff.sign')) return { params: { signoffId: (await shared.signoff(ctx)).signoffId }, body: { decision: 'approve', comment: '' } }
+      // The principal is listed beside a second signer, so one approval does not seal.
+      const signoffId = await freshSignoff(ctx)
+      const signers = [...new Set([ctx.crew.users[p as Role].id, p === 'producer' ? ctx.crew.users.writer.id : ctx.crew.users.producer.id])]
+      await ctx.crew.as.owner.put(`/api/signoffs/${signoffId}/signers`, { userIds: signers })
       return { params: { signoffId }, body: { decision: 'approve', comment: '' } }
     },
   },
   {
     method: 'POST', route: '/api/signoffs/[signoffId]/withdraw', access: 'signoff.request', ok: 200,
-    prepare: async (ctx, p) => {
-      const asker = p === 'owner' ? ctx.crew.as.owner : ctx.crew.as.writer
-      return { params: { signoffId: await requestSignoff(asker, (await draftWithLines(ctx.crew)).versionId) } }
-    },
+    prepare: async (ctx, p) => ({ params: { signoffId: allowed(p, 'signoff.request') ? await freshSignoff(ctx, p === 'owner' ? 'owner' : 'writer') : (await shared.signoff(ctx)).signoffId } }),
   },
-  { method: 'POST', route: '/api/seals/[sealId]/unseal', access: 'seal.unseal', ok: 201, prepare: async ctx => ({ params: { sealId: (await sealedSong(ctx.crew)).sealId }, body: { reason: 'A late fix to the hook' } }) },
-  { method: 'GET', route: '/api/songs/[songId]/seal', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
-  { method: 'GET', route: '/api/versions/[versionId]/sheet', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
-  { method: 'GET', route: '/api/versions/[versionId]/sheet.txt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
-  { method: 'GET', route: '/api/versions/[versionId]/sheet.vtt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
-  { method: 'GET', route: '/api/versions/[versionId]/sheet.pdf', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await ctx.draft()).versionId } }) },
-  { method: 'GET', route: '/api/songs/[songId]/split', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
+  {
+    method: 'POST', route: '/api/seals/[sealId]/unseal', access: 'seal.unseal', ok: 201,
+    prepare: async (ctx, p) => ({ params: { sealId: allowed(p, 'seal.unseal') ? (await sealedSong(ctx.crew)).sealId : (await shared.seal(ctx)).sealId }, body: { reason: 'A late fix to the hook' } }),
+  },
+  { method: 'GET', route: '/api/songs/[songId]/seal', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.txt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.vtt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.pdf', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/split', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
   { method: 'PUT', route: '/api/songs/[songId]/split', access: 'split.edit', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { lines: [{ name: 'Outside Contributor', share: '100.00' }] } }) },
   {
     method: 'POST', route: '/api/songs/[songId]/split/confirm', access: 'split.confirm', ok: 200,
     prepare: async (ctx, p) => {
       const songId = await ctx.song()
-      const listed = p !== 'anonymous' && p !== 'outsider' && canDo(p, 'split.confirm') ? ctx.crew.users[p].id : ctx.crew.users.writer.id
+      const listed = allowed(p, 'split.confirm') ? ctx.crew.users[p as Role].id : ctx.crew.users.writer.id
       await ctx.crew.as.owner.put(`/api/songs/${songId}/split`, { lines: [{ userId: listed, name: 'Listed member', share: 100 }] })
       return { params: { songId }, body: { confirm: true } }
     },
   },
-  { method: 'GET', route: '/api/songs/[songId]/activity', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/activity', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
 ]
