@@ -157,8 +157,8 @@ export async function renderSheetPdf(model: SheetModel): Promise<Buffer> {
     }
     for (const line of section.lines) {
       doc.font('L').fontSize(12.5)
-      const h = doc.heightOfString(line.text, { width: textWidth }) + 6
-      ensure(h)
+      // widthOfString is far cheaper than laying the text out twice; lines wrap rarely.
+      ensure(Math.ceil(doc.widthOfString(line.text) / textWidth) * doc.currentLineHeight(true) + 6)
       const y = doc.y
       doc.font('L').fontSize(8.5).fillColor(FAINT)
         .text(String(line.bar), left, y + 3, { width: 26, align: 'right', lineBreak: false })
