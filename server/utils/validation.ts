@@ -41,3 +41,26 @@ export function validQuery<S extends z.ZodType>(event: H3Event, schema: S): z.ou
 export function validParams<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
   return parseOr400(schema, getRouterParams(event, { decode: true }), 'address')
 }
+
+/**
+ * The JSON body, refused with 413 past `maxBytes` (by Content-Length, or by what arrived) and
+ * with 400 when it is not JSON. Validation is the caller's, after any limits of its own.
+ */
+export async function limitedJsonBody(event: H3Event, maxBytes: number): Promise<unknown> {
+  const type = getRequestHeader(event, 'content-type') ?? ''
+  if (type && !type.includes('application/json')) {
+    throw createError({ statusCode: 415, message: 'Send the request body as JSON (Content-Type: application/json).' })
+  }
+  const tooLarge = () => createError({ statusCode: 413, message: `The request is larger than ${Math.round(maxBytes / 1024)} KB; send fewer lines at a time.` })
+  const declared = Number(getRequestHeader(event, 'content-length') ?? 0)
+  if (declared > maxBytes) throw tooLarge()
+  const raw = await readRawBody(event, 'utf8')
+  if (raw && Buffer.byteLength(raw) > maxBytes) throw tooLarge()
+  if (!raw) return {}
+  try {
+    return JSON.parse(raw)
+  }
+  catch {
+    throw createError({ statusCode: 400, message: 'The body is not valid JSON.' })
+  }
+}

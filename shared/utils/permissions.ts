@@ -41,6 +41,9 @@ export const PERMISSIONS = {
   'seal.unseal': ['owner'],
   'split.edit': ['owner', 'writer'],
   'split.confirm': ['owner', 'producer', 'writer', 'cowriter'],
+  // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
+  'lexicon.view': everyone,
+  'lexicon.edit': ['owner', 'writer', 'cowriter'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS

@@ -56,6 +56,11 @@ beforeAll(async () => {
       return res.body.data.sideSaveId as string
     },
     freshClient: async (p: Principal) => (p === 'anonymous' ? new ApiClient() : signedIn(crew.users[p])),
+    async lexiconEntry() {
+      const word = `zq${randomUUID().replace(/[^a-f]/g, '').slice(0, 8)}`
+      const res = await crew.as.owner.post(`/api/crews/${crew.crewId}/lexicon`, { word, phones: 'Z IY1 K W AH0' })
+      return res.body.id as string
+    },
   }
 })
 
@@ -81,7 +86,7 @@ describe('role matrix', () => {
       for (const principal of PRINCIPALS) {
         const prepared = await (c.prepare?.(ctx, principal) ?? {})
         const client = prepared.client ?? crew.as[principal]
-        const path = fillRoute(c.route, { crewId: crew.crewId, ...prepared.params })
+        const path = fillRoute(c.route, { crewId: crew.crewId, ...prepared.params }) + (prepared.query ? `?${new URLSearchParams(prepared.query)}` : '')
         const body = c.method === 'GET' || c.method === 'DELETE' ? undefined : (prepared.body ?? {})
         const res = await client.request(c.method, path, body)
         seen[principal] = res.status

@@ -18,6 +18,7 @@ export interface MatrixContext {
   /** A save by `p` refused as stale (kept aside); by the writer when `p` may not save. */
   sideSave: (p: Principal) => Promise<string>
   freshClient: (p: Principal) => Promise<ApiClient>
+  lexiconEntry: () => Promise<string>
 }
 
 export interface MatrixCase {
@@ -28,7 +29,7 @@ export interface MatrixCase {
   /** Status for a principal that is allowed. */
   ok: number
   /** Route parameters and body for one call by `principal`; may make fresh rows or a fresh client. */
-  prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, body?: unknown, client?: ApiClient }>
+  prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, query?: Record<string, string>, body?: unknown, client?: ApiClient }>
 }
 
 const allowed = (p: Principal, action: Action) => p !== 'anonymous' && p !== 'outsider' && canDo(p, action)
@@ -159,4 +160,11 @@ export const MATRIX: MatrixCase[] = [
     },
   },
   { method: 'GET', route: '/api/songs/[songId]/activity', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
+  // prosody: analysis, rhyme finder, crew lexicon
+  { method: 'POST', route: '/api/analysis', access: 'user', ok: 200, prepare: async () => ({ body: { lines: [{ id: 'a', bar: 1, text: 'night bus home' }] } }) },
+  { method: 'GET', route: '/api/rhymes', access: 'user', ok: 200, prepare: async () => ({ query: { q: 'night' } }) },
+  { method: 'GET', route: '/api/crews/[crewId]/lexicon', access: 'lexicon.view', ok: 200 },
+  { method: 'POST', route: '/api/crews/[crewId]/lexicon', access: 'lexicon.edit', ok: 201, prepare: async () => ({ body: { word: `zq${randomUUID().replace(/[^a-f]/g, '').slice(0, 8)}`, phones: 'Z IY1 K Y UW0' } }) },
+  { method: 'PATCH', route: '/api/crews/[crewId]/lexicon/[entryId]', access: 'lexicon.edit', ok: 200, prepare: async ctx => ({ params: { entryId: await ctx.lexiconEntry() }, body: { soundsLike: 'skirt' } }) },
+  { method: 'DELETE', route: '/api/crews/[crewId]/lexicon/[entryId]', access: 'lexicon.edit', ok: 204, prepare: async ctx => ({ params: { entryId: await ctx.lexiconEntry() } }) },
 ]

@@ -4,6 +4,7 @@ import { users } from '../schema'
 import { seedPeople } from './people'
 import { seedSongs } from './songs'
 import { seedFinishedSong } from './finished'
+import { seedLexicon } from './lexicon'
 
 /**
  * Seeds the invented demo crew when the database has no users yet, so it never writes over
@@ -16,6 +17,7 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
     const people = await seedPeople(tx, useEnv().DEMO_PASSWORD)
     await seedSongs(tx, people)
     await seedFinishedSong(tx, people)
+    await seedLexicon(tx, people)
   })
   console.log('[barsmith] seeded the demo crew')
   return true

@@ -1,0 +1,2 @@
+// The ARPAbet helpers live in shared/ so the browser validates typed phones the same way.
+export * from '../../../shared/utils/arpabet'
