@@ -52,6 +52,12 @@ export default defineNuxtConfig({
 
   nitro: {
     experimental: { tasks: false },
+    // Literata as shipped by @fontsource, embedded in the sheet PDFs (useStorage('assets:fonts')).
+    serverAssets: [{
+      baseName: 'fonts',
+      dir: fileURLToPath(new URL('./node_modules/@fontsource/literata/files', import.meta.url)),
+      pattern: 'literata-latin-{400,600}-{normal,italic}.woff',
+    }],
     handlers: localMail
       ? [
           { route: '/api/dev/mail', method: 'get', handler: '~~/server/dev/mail.get.ts' },

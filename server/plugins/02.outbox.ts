@@ -3,6 +3,8 @@
  * seconds otherwise (retries, or a missed notification). Runs in every instance unless
  * BARSMITH_WORKERS=0; rows are claimed with SKIP LOCKED so instances never send twice.
  */
+const MAIL_BATCH = 20
+
 export default defineNitroPlugin((nitroApp) => {
   if (useEnv().BARSMITH_WORKERS !== '1') return
   let running = false
@@ -15,10 +17,12 @@ export default defineNitroPlugin((nitroApp) => {
     }
     running = true
     try {
+      let handled = 0
       do {
         again = false
-        await deliverDueMail(useDb())
-      } while (again)
+        // A full batch means more may be waiting: go on without waiting for the timer.
+        handled = await deliverDueMail(useDb(), MAIL_BATCH)
+      } while (again || handled >= MAIL_BATCH)
     }
     catch (error) {
       console.warn('[outbox] delivery round failed:', (error as Error).message)

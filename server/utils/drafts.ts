@@ -103,6 +103,7 @@ export async function saveVersion(db: DbOrTx, input: SaveInput): Promise<SaveRes
       lines: input.lines,
     }).returning({ id: versions.id, number: versions.number })
     await tx.update(drafts).set({ headVersionId: version!.id }).where(eq(drafts.id, draft.id))
+    await cancelSignoffsOnNewVersion(tx, { songId: draft.songId, draftId: draft.id, version: version! })
     await publishSongEvent(tx, draft.songId, { type: 'version', draftId: draft.id, versionId: version!.id, number: version!.number, authorId: input.authorId })
     return { saved: true, version: version! }
   })

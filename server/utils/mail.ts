@@ -1,6 +1,6 @@
-import { and, asc, eq, lte, sql } from 'drizzle-orm'
+import { eq, inArray, sql } from 'drizzle-orm'
 import nodemailer, { type Transporter } from 'nodemailer'
-import type SMTPTransport from 'nodemailer/lib/smtp-transport'
+import type SMTPPool from 'nodemailer/lib/smtp-pool'
 import { outbox, type OutboxAttachment, type OutboxMessage } from '../database/schema'
 import type { DbOrTx } from './db'
 
@@ -27,7 +27,7 @@ let transporter: Transporter | undefined
 
 function useTransporter(): Transporter {
   transporter ??= nodemailer.createTransport(
-    { url: useEnv().SMTP_URL, connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 } satisfies SMTPTransport.Options,
+    { url: useEnv().SMTP_URL, pool: true, maxConnections: SEND_CONCURRENCY, connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 } satisfies SMTPPool.Options,
     { from: useEnv().MAIL_FROM },
   )
   return transporter
@@ -65,37 +65,45 @@ async function sendOne(message: OutboxMessage) {
   })
 }
 
+/** How long a claimed message stays reserved for its sender before another may retry it. */
+const CLAIM_LEASE_SECONDS = 120
+const SEND_CONCURRENCY = 5
+
 /**
- * Claims due messages (SKIP LOCKED, so several server instances share the work), sends
- * them and records the outcome; a failure is retried later with a growing delay.
+ * Claims up to `batch` due messages (SKIP LOCKED, so several server instances share the
+ * work) by pushing their next attempt past a lease, sends them a few at a time over pooled
+ * SMTP connections and records each outcome; a failure is retried later with a growing
+ * delay. A sender that dies mid-send leaves its messages to be retried when the lease ends.
  * Returns how many were sent.
  */
-export async function deliverDueMail(db: DbOrTx, limit = 20): Promise<number> {
+export async function deliverDueMail(db: DbOrTx, batch = 20): Promise<number> {
+  const claimed = await db.execute<{ id: string }>(sql`
+    UPDATE outbox SET next_attempt_at = now() + make_interval(secs => ${CLAIM_LEASE_SECONDS}), attempts = attempts + 1
+    WHERE id IN (
+      SELECT id FROM outbox WHERE status = 'pending' AND next_attempt_at <= now()
+      ORDER BY next_attempt_at LIMIT ${batch} FOR UPDATE SKIP LOCKED
+    ) RETURNING id`)
+  const ids = claimed.rows.map(r => r.id)
+  if (ids.length === 0) return 0
+  const messages = await db.select().from(outbox).where(inArray(outbox.id, ids))
   let sent = 0
-  for (;;) {
-    const done = await db.transaction(async (tx) => {
-      const [message] = await tx.select().from(outbox)
-        .where(and(eq(outbox.status, 'pending'), lte(outbox.nextAttemptAt, sql`now()`)))
-        .orderBy(asc(outbox.nextAttemptAt))
-        .limit(1)
-        .for('update', { skipLocked: true })
-      if (!message) return false
+  const queue = [...messages]
+  const worker = async () => {
+    for (let message = queue.shift(); message; message = queue.shift()) {
       try {
         await sendOne(message)
-        await tx.update(outbox).set({ status: 'sent', sentAt: new Date(), attempts: message.attempts + 1, lastError: null }).where(eq(outbox.id, message.id))
+        await db.update(outbox).set({ status: 'sent', sentAt: new Date(), lastError: null }).where(eq(outbox.id, message.id))
         sent++
       }
       catch (error) {
-        const attempts = message.attempts + 1
-        await tx.update(outbox).set({
-          attempts,
-          status: attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending',
+        await db.update(outbox).set({
+          status: message.attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending',
           lastError: String((error as Error).message ?? error).slice(0, 1000),
-          nextAttemptAt: new Date(Date.now() + retryDelaySeconds(attempts) * 1000),
+          nextAttemptAt: new Date(Date.now() + retryDelaySeconds(message.attempts) * 1000),
         }).where(eq(outbox.id, message.id))
       }
-      return true
-    })
-    if (!done || sent >= limit) return sent
+    }
   }
+  await Promise.all(Array.from({ length: Math.min(SEND_CONCURRENCY, messages.length) }, worker))
+  return sent
 }

@@ -38,6 +38,14 @@ export const PERMISSIONS = {
   'alt.vote': ['owner', 'producer', 'writer', 'cowriter'],
   'alt.comment': ['owner', 'producer', 'writer', 'cowriter'],
   'alt.decide': ['owner', 'writer'],
+  // finishing: lines out, sign-off, seal, split sheet (reading them is song.view)
+  'line.markOut': ['owner', 'producer', 'writer'],
+  'signoff.request': ['owner', 'writer'],
+  'signoff.signers': ['owner'],
+  'signoff.sign': ['owner', 'producer', 'writer', 'cowriter'],
+  'seal.unseal': ['owner'],
+  'split.edit': ['owner', 'writer'],
+  'split.confirm': ['owner', 'producer', 'writer', 'cowriter'],
   // prosody: the crew's lexicon (pronunciations the analysis and the rhyme finder use)
   'lexicon.view': everyone,
   'lexicon.edit': ['owner', 'writer', 'cowriter'],

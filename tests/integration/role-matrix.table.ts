@@ -1,10 +1,12 @@
 import { randomUUID } from 'node:crypto'
-import type { Action } from '../../shared/utils/permissions'
+import type { Action, Role } from '../../shared/utils/permissions'
 import type { ApiClient } from '../support/http'
 import { StreamProbe } from '../support/sse'
 import type { Principal, TestCrew } from '../support/people'
 import type { Method } from '../support/routes'
 import { smallWav, audioForm, uploadBeat, waitForBeat } from '../support/beats'
+import { can as canDo } from '../../shared/utils/permissions'
+import { draftWithLines, requestSignoff, sealedSong } from '../support/finish'
 
 export interface MatrixContext {
   crew: TestCrew
@@ -35,6 +37,19 @@ export interface MatrixCase {
   /** Route parameters and body for one call by `principal`; may make fresh rows or a fresh client. */
   prepare?: (ctx: MatrixContext, principal: Principal) => Promise<{ params?: Record<string, string>, query?: Record<string, string>, body?: unknown, client?: ApiClient }>
 }
+
+const allowed = (p: Principal, action: Action) => p !== 'anonymous' && p !== 'outsider' && canDo(p, action)
+const freshSignoff = async (ctx: MatrixContext, asker: 'writer' | 'owner' = 'writer') => requestSignoff(ctx.crew.as[asker], (await draftWithLines(ctx.crew)).versionId)
+
+/** Rows made once per run and shared by the routes that only read them. */
+const shared = (() => {
+  let signoff: Promise<{ songId: string, signoffId: string }> | undefined
+  let seal: ReturnType<typeof sealedSong> | undefined
+  return {
+    signoff: (ctx: MatrixContext) => (signoff ??= draftWithLines(ctx.crew).then(async d => ({ songId: d.songId, signoffId: await requestSignoff(ctx.crew.as.writer, d.versionId) }))),
+    seal: (ctx: MatrixContext) => (seal ??= sealedSong(ctx.crew)),
+  }
+})()
 
 const email = () => `m-${randomUUID().slice(0, 8)}@example.test`
 const fakeToken = () => randomUUID().replace(/-/g, '').repeat(2)
@@ -137,6 +152,59 @@ export const MATRIX: MatrixCase[] = [
   { method: 'GET', route: '/api/songs/[songId]/presence', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() } }) },
   { method: 'GET', route: '/api/notifications', access: 'user', ok: 200 },
   { method: 'POST', route: '/api/notifications/read', access: 'user', ok: 200, prepare: async () => ({ body: { all: true } }) },
+  // finishing: lines out, sign-off, seals, sheet exports, split sheet, activity. Rows that a
+  // principal only reads, or is refused, are made once; each allowed change gets fresh ones
+  // (every sign-off and seal sends mail, so the matrix keeps their number down).
+  {
+    method: 'POST', route: '/api/drafts/[draftId]/out-marks', access: 'line.markOut', ok: 201,
+    prepare: async (ctx) => {
+      const d = await ctx.draft()
+      return { params: { draftId: d.draftId }, body: { baseVersionId: d.versionId, lines: [{ id: 'm1', bar: 1, text: 'v1', out: true }] } }
+    },
+  },
+  { method: 'GET', route: '/api/songs/[songId]/signoffs', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.signoff(ctx)).songId } }) },
+  { method: 'POST', route: '/api/versions/[versionId]/signoffs', access: 'signoff.request', ok: 201, prepare: async ctx => ({ params: { versionId: (await draftWithLines(ctx.crew)).versionId }, body: {} }) },
+  { method: 'GET', route: '/api/signoffs/[signoffId]', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { signoffId: (await shared.signoff(ctx)).signoffId } }) },
+  {
+    method: 'PUT', route: '/api/signoffs/[signoffId]/signers', access: 'signoff.signers', ok: 200,
+    prepare: async (ctx, p) => ({ params: { signoffId: allowed(p, 'signoff.signers') ? await freshSignoff(ctx) : (await shared.signoff(ctx)).signoffId }, body: { userIds: [ctx.crew.users.writer.id, ctx.crew.users.cowriter.id] } }),
+  },
+  {
+    method: 'POST', route: '/api/signoffs/[signoffId]/decision', access: 'signoff.sign', ok: 200,
+    prepare: async (ctx, p) => {
+      if (!allowed(p, 'signoff.sign')) return { params: { signoffId: (await shared.signoff(ctx)).signoffId }, body: { decision: 'approve', comment: '' } }
+      // The principal is listed beside a second signer, so one approval does not seal.
+      const signoffId = await freshSignoff(ctx)
+      const signers = [...new Set([ctx.crew.users[p as Role].id, p === 'producer' ? ctx.crew.users.writer.id : ctx.crew.users.producer.id])]
+      await ctx.crew.as.owner.put(`/api/signoffs/${signoffId}/signers`, { userIds: signers })
+      return { params: { signoffId }, body: { decision: 'approve', comment: '' } }
+    },
+  },
+  {
+    method: 'POST', route: '/api/signoffs/[signoffId]/withdraw', access: 'signoff.request', ok: 200,
+    prepare: async (ctx, p) => ({ params: { signoffId: allowed(p, 'signoff.request') ? await freshSignoff(ctx, p === 'owner' ? 'owner' : 'writer') : (await shared.signoff(ctx)).signoffId } }),
+  },
+  {
+    method: 'POST', route: '/api/seals/[sealId]/unseal', access: 'seal.unseal', ok: 201,
+    prepare: async (ctx, p) => ({ params: { sealId: allowed(p, 'seal.unseal') ? (await sealedSong(ctx.crew)).sealId : (await shared.seal(ctx)).sealId }, body: { reason: 'A late fix to the hook' } }),
+  },
+  { method: 'GET', route: '/api/songs/[songId]/seal', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.txt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.vtt', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/versions/[versionId]/sheet.pdf', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { versionId: (await shared.seal(ctx)).versionId } }) },
+  { method: 'GET', route: '/api/songs/[songId]/split', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
+  { method: 'PUT', route: '/api/songs/[songId]/split', access: 'split.edit', ok: 200, prepare: async ctx => ({ params: { songId: await ctx.song() }, body: { lines: [{ name: 'Outside Contributor', share: '100.00' }] } }) },
+  {
+    method: 'POST', route: '/api/songs/[songId]/split/confirm', access: 'split.confirm', ok: 200,
+    prepare: async (ctx, p) => {
+      const songId = await ctx.song()
+      const listed = allowed(p, 'split.confirm') ? ctx.crew.users[p as Role].id : ctx.crew.users.writer.id
+      await ctx.crew.as.owner.put(`/api/songs/${songId}/split`, { lines: [{ userId: listed, name: 'Listed member', share: 100 }] })
+      return { params: { songId }, body: { confirm: true } }
+    },
+  },
+  { method: 'GET', route: '/api/songs/[songId]/activity', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
   // prosody: analysis, rhyme finder, crew lexicon
   { method: 'POST', route: '/api/analysis', access: 'user', ok: 200, prepare: async () => ({ body: { lines: [{ id: 'a', bar: 1, text: 'night bus home' }] } }) },
   { method: 'GET', route: '/api/rhymes', access: 'user', ok: 200, prepare: async () => ({ query: { q: 'night' } }) },

@@ -4,6 +4,7 @@ import { users } from '../schema'
 import { seedPeople } from './people'
 import { seedSongs } from './songs'
 import { seedDrafts } from './drafts'
+import { seedFinishedSong } from './finished'
 import { seedLexicon } from './lexicon'
 import { seedBeat } from './beats'
 
@@ -19,6 +20,7 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
     const song = await seedSongs(tx, people)
     await seedBeat(tx, people, song.songId)
     await seedDrafts(tx, people, song)
+    await seedFinishedSong(tx, people)
     await seedLexicon(tx, people)
   })
   console.log('[barsmith] seeded the demo crew')

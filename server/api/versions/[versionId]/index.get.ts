@@ -1,5 +1,6 @@
 export default defineEventHandler(async (event) => {
   const { version, draft } = await requireVersionAccess(event, 'song.view')
+  const seal = await activeSealOfVersion(useDb(), version.id)
   return {
     id: version.id,
     number: version.number,
@@ -13,6 +14,7 @@ export default defineEventHandler(async (event) => {
     parentId: version.parentId,
     lines: version.lines,
     doc: version.doc,
-    sealed: false,
+    sealed: !!seal,
+    sealedAt: seal?.sealedAt ?? null,
   }
 })

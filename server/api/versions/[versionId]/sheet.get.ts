@@ -1,0 +1,7 @@
+/** The final sheet of a version as data: what the sheet page, and every export, prints. */
+export default defineEventHandler(async (event) => {
+  const { version } = await requireVersionAccess(event, 'song.view')
+  const model = await loadSheetModel(useDb(), version.id)
+  if (!model) throw notFound('Version')
+  return model
+})
