@@ -1,4 +1,5 @@
 import { cp } from 'node:fs/promises'
+import { createRequire } from 'node:module'
 import { resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
@@ -52,6 +53,8 @@ export default defineNuxtConfig({
 
   nitro: {
     experimental: { tasks: false },
+    // The prosody engine reads the dictionary's data file at run time (server/utils/prosody/dictionary.ts).
+    externals: { traceInclude: [createRequire(import.meta.url).resolve('cmu-pronouncing-dictionary')] },
     handlers: localMail
       ? [
           { route: '/api/dev/mail', method: 'get', handler: '~~/server/dev/mail.get.ts' },
