@@ -45,7 +45,7 @@ describe('analysis JSON', () => {
 describe('response cache', () => {
   it('answers the same text for the same draft and lexicon version, and follows a new version at once', () => {
     const plain = analysisResponse(input, undefined, 'words')
-    expect(analysisResponse(input, undefined, 'words')).toBe(plain)
+    expect(analysisResponse(input, undefined, 'words')).toBe(plain) // the very same bytes, from the cache
     const v1 = Object.assign(new Map([['zorbly', [['Z', 'AO1', 'R', 'B', 'L', 'IY0']]]]), { version: 'v1' })
     const taught = JSON.parse(analysisResponse(input, v1, 'words'))
     expect(taught.lines[3].words.find((w: { text: string }) => w.text === 'zorbly')).toMatchObject({ source: 'lexicon', syllables: 2 })
