@@ -69,6 +69,20 @@ describe('POST /api/analysis', () => {
     expect((await crew.as.writer.post('/api/analysis?detail=x', { lines })).status).toBe(400)
   })
 
+  it('compresses the answer when the client accepts it, to the same JSON', async () => {
+    // HTTP content codings (RFC 9110 §8.4): br (RFC 7932) preferred, then gzip, else none
+    const body = JSON.stringify({ lines })
+    const plain = await crew.as.writer.request('POST', '/api/analysis', body, { 'content-type': 'application/json', 'accept-encoding': 'identity' })
+    expect(plain.headers.get('content-encoding')).toBeNull()
+    for (const [accept, coding] of [['gzip, deflate, br', 'br'], ['gzip', 'gzip'], ['br;q=0, gzip', 'gzip'], ['br, gzip;q=0.5', 'br']]) {
+      const res = await crew.as.writer.request('POST', '/api/analysis', body, { 'content-type': 'application/json', 'accept-encoding': accept })
+      expect(res.status).toBe(200)
+      expect(res.headers.get('content-encoding'), accept).toBe(coding)
+      expect(res.headers.get('vary')).toMatch(/accept-encoding/i)
+      expect(res.body).toEqual(plain.body)
+    }
+  })
+
   it('returns density per section when sections are given', async () => {
     const res = await crew.as.writer.post('/api/analysis', { lines, sections: [{ id: 's1', startBar: 1, endBar: 2, kind: 'verse', label: 'Verse 1' }] })
     expect(res.status).toBe(200)

@@ -1,5 +1,5 @@
 import { ANALYSIS_LIMITS, AnalysisBodySchema, AnalysisQuerySchema } from '../../../shared/schemas/prosody'
-import { analysisResponse } from '../../utils/prosody/response'
+import { analysisResponseIn, chooseCoding } from '../../utils/prosody/response'
 
 export default defineEventHandler(async (event) => {
   await requireUser(event)
@@ -10,7 +10,11 @@ export default defineEventHandler(async (event) => {
   }
   const input = parseOr400(AnalysisBodySchema, body, 'analysis')
   const lexicon = await lexiconFor(event, input.crewId)
-  // The JSON text is made (or found) by the engine: each word's JSON is kept with its line.
+  // The JSON is made (or found) by the engine, each word's JSON kept with its line, and sent
+  // compressed when the client accepts it (a large body costs more to write than to compress).
+  const { body: bytes, coding } = analysisResponseIn(input, lexicon, input.detail ?? query.detail ?? 'words', chooseCoding(getRequestHeader(event, 'accept-encoding')))
   setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
-  return analysisResponse(input, lexicon, input.detail ?? query.detail ?? 'words')
+  appendResponseHeader(event, 'vary', 'Accept-Encoding')
+  if (coding !== 'identity') setResponseHeader(event, 'content-encoding', coding)
+  return bytes
 })
