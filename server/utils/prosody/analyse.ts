@@ -236,7 +236,7 @@ interface LineFacts {
   /** Every spoken word, to tell whether a lexicon touches the line. */
   spoken: string[]
   /** JSON of each word without its closing brace, per detail level, made on first use. */
-  json: { words?: string[], full?: string[] }
+  json: { words?: string[], full?: string[], head?: { id: string, bar: number, text: string } }
 }
 
 function lineFacts(text: string, options: ResolveOptions, tokens: Token[] = tokenize(text)): LineFacts {
@@ -746,9 +746,15 @@ export function analysisJson(analysis: Analysis, detail: AnalysisJsonDetail = 'w
   for (let li = 0; li < analysis.lines.length; li++) {
     const line = analysis.lines[li]!
     if (li) out += ','
-    out += `${openJson({ id: line.id, bar: line.bar, syllables: line.syllables, syllablesMin: line.syllablesMin, syllablesMax: line.syllablesMax, adlibSyllables: line.adlibSyllables, stress: line.stress })},"words":[`
     // The words of a line from `analyseDraft` are its facts' words or marked copies of them.
     const f = facts?.[li]
+    // The line's own fields: kept with its facts for the id and bar it last had.
+    let head = f?.json.head
+    if (!head || head.id !== line.id || head.bar !== line.bar || !f || f.syllables !== line.syllables) {
+      head = { id: line.id, bar: line.bar, text: `${openJson({ id: line.id, bar: line.bar, syllables: line.syllables, syllablesMin: line.syllablesMin, syllablesMax: line.syllablesMax, adlibSyllables: line.adlibSyllables, stress: line.stress })},"words":[` }
+      if (f) f.json.head = head
+    }
+    out += head.text
     const cached = f && f.words.length === line.words.length ? (f.json[detail] ??= f.words.map(w => openJson(detail === 'full' ? w : wordsDetail(w)))) : null
     for (let wi = 0; wi < line.words.length; wi++) {
       const w = line.words[wi]!

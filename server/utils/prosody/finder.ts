@@ -1,6 +1,6 @@
 import { base, isVowel, rhymePart, syllableCount, VOWELS } from './arpabet'
 import { COMMON_LISTS as LISTS } from './common-words'
-import { eachPronunciation, entryPronunciation } from './dictionary'
+import { dictionarySize, eachPronunciation, entryPronunciation } from './dictionary'
 import { concatParts, resolveWord, type Lexicon } from './resolve'
 import { codasAlike, shapeOf } from './rhyme'
 import { tokenize } from './tokenize'
@@ -58,11 +58,13 @@ function tailKey(ids: ArrayLike<number>, count: number, k: number): number {
 export function finderIndex(): FinderIndex {
   if (index) return index
   const started = performance.now()
+  // Sized for the whole dictionary at most (its 135,155 keys), so nothing grows while filling.
+  const most = dictionarySize()
   const words: string[] = []
-  const entries: number[] = []
-  const syl: number[] = []
-  const partOf: number[] = []
-  const tailOf: number[] = [] // three slots per entry: tails of 2, 3 and 4 vowels
+  const entries = new Int32Array(most)
+  const syl = new Uint8Array(most)
+  const partOf = new Int32Array(most)
+  const tailOf = new Int32Array(most * 3) // three slots per entry: tails of 2, 3 and 4 vowels
   const partIds = new Map<string, number>()
   const nearParts = new Map<string, string[]>()
   const tailIds = new Map<number, number>()
@@ -100,14 +102,13 @@ export function finderIndex(): FinderIndex {
       start = i + 1
     }
     const at = primary >= 0 ? primary : secondary >= 0 ? secondary : last
+    const id = words.length
     words.push(word)
-    entries.push(entry)
-    syl.push(count)
-    if (at < 0) {
-      partOf.push(-1)
-      tailOf.push(-1, -1, -1)
-      return
-    }
+    entries[id] = entry
+    syl[id] = count
+    partOf[id] = -1
+    tailOf.fill(-1, id * 3, id * 3 + 3)
+    if (at < 0) return
     let h = 0x811C9DC5
     let len = 0
     for (let i = at; i < to; i++) {
@@ -147,16 +148,12 @@ export function finderIndex(): FinderIndex {
       if (list) list.push(name)
       else nearParts.set(v, [name])
     }
-    partOf.push(part)
-    for (let k = 2; k <= 4; k++) {
-      if (k > count) {
-        tailOf.push(-1)
-        continue
-      }
+    partOf[id] = part
+    for (let k = 2; k <= 4 && k <= count; k++) {
       const key = tailKey(vowels, count, k)
       let t = tailIds.get(key)
       if (t === undefined) tailIds.set(key, t = tailIds.size)
-      tailOf.push(t)
+      tailOf[id * 3 + k - 2] = t
     }
   }
   for (const [, lists] of LISTS) {
@@ -179,9 +176,10 @@ export function finderIndex(): FinderIndex {
       }
     }
   }
-  const perfect = bucketsOf(Int32Array.from(partOf), 1, partNames.length)
-  const tails = bucketsOf(Int32Array.from(tailOf), 3, tailIds.size)
-  index = { words, entries: Int32Array.from(entries), syllables: Uint8Array.from(syl), partIds, perfect, nearParts, tailIds, tails, builtMs: performance.now() - started }
+  const n = words.length
+  const perfect = bucketsOf(partOf.subarray(0, n), 1, partNames.length)
+  const tails = bucketsOf(tailOf.subarray(0, n * 3), 3, tailIds.size)
+  index = { words, entries: entries.slice(0, n), syllables: syl.slice(0, n), partIds, perfect, nearParts, tailIds, tails, builtMs: performance.now() - started }
   return index
 }
 
