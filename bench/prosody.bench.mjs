@@ -152,7 +152,8 @@ catch (error) {
 }
 
 // Over HTTP on loopback: 20 connections for 10 s per mode, as the desk sends it (with the
-// crew's id, so the crew check and its lexicon are read on every request).
+// crew's id, so the crew check and its lexicon are read on every request; one run without
+// it shows what those two queries cost).
 const serverCpuMs = (pid) => {
   const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ')
   return (Number(f[11]) + Number(f[12])) * 1000 / 100
@@ -170,7 +171,9 @@ try {
   const cookie = await signInCookie(app.baseUrl, 'writer@barsmith.test')
   const crews = await (await fetch(`${app.baseUrl}/api/crews`, { headers: { cookie } })).json()
   const crewId = crews.find(x => x.name === 'Lamplight Collective')?.id ?? crews[0].id
-  const headers = { cookie, 'content-type': 'application/json' }
+  // As a browser sends it (it accepts Brotli and gzip); the plain runs show the uncompressed cost.
+  const headers = { 'cookie': cookie, 'content-type': 'application/json', 'accept-encoding': 'gzip, deflate, br' }
+  const plainHeaders = { ...headers, 'accept-encoding': 'identity' }
   const body = JSON.stringify({ ...input, crewId })
   // Let the server finish its start-up warm-up (finder index) first.
   await new Promise(r => setTimeout(r, 1500))
@@ -180,9 +183,13 @@ try {
     await res.arrayBuffer()
   }
   let n = 0
+  const typing = { requests: [{ setupRequest: req => ({ ...req, body: JSON.stringify({ ...typedInput(n++), crewId }) }) }] }
   const modes = {
     identical: { body },
-    typing: { requests: [{ setupRequest: req => ({ ...req, body: JSON.stringify({ ...typedInput(n++), crewId }) }) }] },
+    typing,
+    identicalUncompressed: { body, headers: plainHeaders },
+    identicalWithoutCrew: { body: JSON.stringify(input) },
+    typingUncompressed: { ...typing, headers: plainHeaders },
   }
   for (const [mode, extra] of Object.entries(modes)) {
     const cpu0 = serverCpuMs(app.serverPid)
@@ -190,7 +197,7 @@ try {
     const requests = result.requests.total
     http[mode] = {
       requests, rps: result.requests.average, p50Ms: median(latencies), p95Ms: pct(latencies, 0.95), p99Ms: pct(latencies, 0.99),
-      p975AutocannonMs: result.latency.p97_5, errors: result.errors + result.non2xx + result.timeouts,
+      p975AutocannonMs: result.latency.p97_5, errors: result.errors + result.non2xx + result.timeouts, bytesPerResponse: Math.round(result.throughput.total / Math.max(1, requests)),
       serverCpuMsPerRequest: (serverCpuMs(app.serverPid) - cpu0) / Math.max(1, requests), loadAvg: load(),
     }
   }
@@ -232,12 +239,13 @@ const rows = [
   ['in-process IDENTICAL to JSON text (response cache), median', `${f(ip.responseIdentical.medianMs, 3)} ms`, `p95 ${f(ip.responseIdentical.p95Ms, 3)} ms`, la(ip.responseIdentical.loadAvg)],
   ['in-process TYPING to JSON text (analysis + JSON), median', `${f(ip.responseTyping.medianMs, 3)} ms`, `p95 ${f(ip.responseTyping.p95Ms, 3)} ms, ${bytesWords} B (full ${bytesFull} B)`, la(ip.responseTyping.loadAvg)],
 ]
-for (const mode of ['identical', 'typing']) {
+const modeName = { identical: 'IDENTICAL', typing: 'TYPING', identicalUncompressed: 'IDENTICAL uncompressed', typingUncompressed: 'TYPING uncompressed', identicalWithoutCrew: 'IDENTICAL no crewId (no lexicon)' }
+for (const mode of Object.keys(modeName)) {
   const h = http[mode]
   if (!h) continue
   rows.push(
-    [`HTTP ${mode.toUpperCase()}, 20 conn, p50 / p95 (target p95 ≤ 15 ms)`, `${f(h.p50Ms, 1)} / ${f(h.p95Ms, 1)} ms`, `p99 ${f(h.p99Ms, 1)} ms, ${h.requests} req, ${f(h.rps, 0)} req/s`, la(h.loadAvg)],
-    [`HTTP ${mode.toUpperCase()}, errors (target 0) / server cpu per request`, `${h.errors}`, `${f(h.serverCpuMsPerRequest, 2)} ms cpu/req`, la(h.loadAvg)],
+    [`HTTP ${modeName[mode]}, 20 conn, p50 / p95 (target p95 ≤ 15 ms)`, `${f(h.p50Ms, 1)} / ${f(h.p95Ms, 1)} ms`, `p99 ${f(h.p99Ms, 1)} ms, ${h.requests} req, ${f(h.rps, 0)} req/s`, la(h.loadAvg)],
+    [`HTTP ${modeName[mode]}, errors (target 0) / server cpu`, `${h.errors}`, `${f(h.serverCpuMsPerRequest, 2)} ms cpu/req, ${h.bytesPerResponse} B/response`, la(h.loadAvg)],
   )
 }
 if (http.healthForScale) rows.push(['HTTP /api/health for scale, 20 conn, p50 / p95', `${f(http.healthForScale.p50Ms, 1)} / ${f(http.healthForScale.p95Ms, 1)} ms`, `${f(http.healthForScale.rps, 0)} req/s`, la(http.healthForScale.loadAvg)])
