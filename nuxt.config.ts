@@ -1,4 +1,5 @@
 import { cp } from 'node:fs/promises'
+import { createRequire } from 'node:module'
 import { resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
@@ -58,6 +59,8 @@ export default defineNuxtConfig({
       dir: fileURLToPath(new URL('./node_modules/@fontsource/literata/files', import.meta.url)),
       pattern: 'literata-latin-{400,600}-{normal,italic}.woff',
     }],
+    // The prosody engine reads the dictionary's data file at run time (server/utils/prosody/dictionary.ts).
+    externals: { traceInclude: [createRequire(import.meta.url).resolve('cmu-pronouncing-dictionary')] },
     handlers: localMail
       ? [
           { route: '/api/dev/mail', method: 'get', handler: '~~/server/dev/mail.get.ts' },

@@ -12,7 +12,9 @@ export type SignedInUser = Pick<User, 'id' | 'email' | 'name' | 'emailVerifiedAt
  */
 export async function requireUser(event: H3Event): Promise<SignedInUser> {
   if (event.context.barsmithUser) return event.context.barsmithUser as SignedInUser
+  reuseUnsealedSession(event)
   const session = await requireUserSession(event, { message: 'Sign in to continue.' })
+  rememberUnsealedSession(event)
   const [row] = await useDb()
     .select({ id: users.id, email: users.email, name: users.name, emailVerifiedAt: users.emailVerifiedAt, sessionVersion: users.sessionVersion })
     .from(users)

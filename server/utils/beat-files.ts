@@ -38,7 +38,12 @@ export function receiveAudioUpload(event: H3Event, limitBytes: number): Promise<
   }
   const declared = Number(req.headers['content-length'] ?? 0)
   // Multipart framing adds a few hundred bytes; anything past the limit plus that is too big for sure.
-  if (declared > limitBytes + 64 * 1024) return Promise.reject(refuse(413, `The file is larger than the upload limit of ${limitMb} MB.`))
+  if (declared > limitBytes + 64 * 1024) {
+    // Answer before reading the body, then linger so the client reads the 413, not a reset.
+    event.node.res.setHeader('Connection', 'close')
+    event.node.res.once('finish', () => lingerThenClose(req))
+    return Promise.reject(refuse(413, `The file is larger than the upload limit of ${limitMb} MB.`))
+  }
 
   return new Promise<ReceivedUpload>((resolve, reject) => {
     let settled = false

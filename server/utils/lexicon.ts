@@ -1,17 +1,39 @@
-import { asc, eq } from 'drizzle-orm'
+import { createHash } from 'node:crypto'
+import { asc, eq, sql } from 'drizzle-orm'
+import { LRUCache } from 'lru-cache'
 import type { H3Event } from 'h3'
 import { parsePhones, stressPattern, syllableCount } from '../../shared/utils/arpabet'
 import { lexiconEntries, type LexiconEntry } from '../database/schema'
 import { resolveWord, type Lexicon } from './prosody/resolve'
 import { tokenize } from './prosody/tokenize'
 
-/** A crew's lexicon as the prosody engine reads it: word → pronunciations. */
+// Read on every analysis with a crew: prepared once (drizzle builds the SQL once, not per call).
+let prepared: ReturnType<typeof prepareLexiconQuery> | null = null
+function prepareLexiconQuery() {
+  return useDb().select({ word: lexiconEntries.word, phones: lexiconEntries.phones })
+    .from(lexiconEntries).where(eq(lexiconEntries.crewId, sql.placeholder('crewId'))).orderBy(asc(lexiconEntries.word))
+    .prepare('barsmith_lexicon_of_crew')
+}
+const lexiconQuery = () => (prepared ??= prepareLexiconQuery())
+
+// The last lexicon read per crew, reused while its entries are the same, so the analysis keeps
+// its per-lexicon caches across requests.
+const lastRead = new LRUCache<string, Lexicon>({ max: 1000 })
+
+/**
+ * A crew's lexicon as the prosody engine reads it: word → pronunciations, with `version` a
+ * digest of every entry. Read on every call, so a word taught through any server is used at once.
+ */
 export async function loadLexicon(crewId: string): Promise<Lexicon> {
-  const rows = await useDb().select({ word: lexiconEntries.word, phones: lexiconEntries.phones })
-    .from(lexiconEntries).where(eq(lexiconEntries.crewId, crewId))
+  const rows = await lexiconQuery().execute({ crewId })
+  const version = createHash('sha1').update(rows.map(r => `${r.word}=${r.phones}`).join('\n')).digest('base64url')
+  const known = lastRead.get(crewId)
+  if (known?.version === version) return known
   const map = new Map<string, string[][]>()
   for (const r of rows) map.set(r.word, [r.phones.split(' ')])
-  return map
+  const lexicon: Lexicon = Object.assign(map, { version })
+  lastRead.set(crewId, lexicon)
+  return lexicon
 }
 
 /**

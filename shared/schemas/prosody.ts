@@ -9,6 +9,18 @@ export const ANALYSIS_LIMITS = {
   bar: 10_000,
 } as const
 
+/**
+ * How much each word carries in an analysis: `words` (the default) what the desk shows, `full`
+ * adds every alternate pronunciation, the normalised spelling and the lookup path.
+ */
+export const ANALYSIS_DETAILS = ['words', 'full'] as const
+export type AnalysisDetail = typeof ANALYSIS_DETAILS[number]
+
+/** `?detail=full` does the same as `detail: "full"` in the body. */
+export const AnalysisQuerySchema = z.object({
+  detail: z.enum(ANALYSIS_DETAILS, { error: 'detail is "words" (the default) or "full".' }).optional(),
+})
+
 export const RHYME_LIMITS = { queryChars: 60, queryWords: 4, maxLimit: 200 } as const
 
 const id = z.string({ error: 'Give each line an id.' }).trim().min(1, 'Give each line an id.').max(100, 'Keep ids under 100 characters.')
@@ -28,6 +40,7 @@ export const AnalysisBodySchema = z.object({
     feel: z.enum(['normal', 'half'], { error: 'Feel is normal or half.' }).optional(),
   }).optional(),
   crewId: z.uuid({ error: 'That crew id is not valid.' }).optional(),
+  detail: z.enum(ANALYSIS_DETAILS, { error: 'detail is "words" (the default) or "full" (every pronunciation and how each was found).' }).optional(),
   sections: z.array(z.object({
     id,
     startBar: bar,

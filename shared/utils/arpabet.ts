@@ -97,3 +97,19 @@ export function vowelsOf(phones: readonly string[]): string[] {
   for (const p of phones) if (stressOf(p) >= 0) out.push(base(p))
   return out
 }
+
+/**
+ * Rebuilds a pronunciation's per-syllable parts from the phone counts an analysis sends
+ * (`syllableSplit`): each part's phones and the stress of its vowel.
+ */
+export function splitByCounts(phones: readonly string[], counts: readonly number[]): Array<{ phones: string[], stress: 0 | 1 | 2 }> {
+  const parts: Array<{ phones: string[], stress: 0 | 1 | 2 }> = []
+  let at = 0
+  for (const n of counts) {
+    const part = phones.slice(at, at + n)
+    at += n
+    const vowel = part.find(p => stressOf(p) >= 0)
+    parts.push({ phones: part, stress: (vowel ? stressOf(vowel) : 0) as 0 | 1 | 2 })
+  }
+  return parts
+}

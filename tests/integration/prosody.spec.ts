@@ -51,6 +51,38 @@ describe('POST /api/analysis', () => {
     expect(body.lines[2].words[0]).toMatchObject({ text: 'zorbly', source: 'guess' })
   })
 
+  it('sends every pronunciation only when asked (detail: "full" or ?detail=full)', async () => {
+    const slim = await crew.as.writer.post('/api/analysis', { lines })
+    const word = slim.body.lines[1].words.find((w: { text: string }) => w.text === '808')
+    // CMU Pronouncing Dictionary: eight EY1 T, oh OW1; a lone consonant between vowels opens the next syllable (maximal onset, common practice)
+    expect(word).toMatchObject({ phones: ['EY1', 'T', 'OW1', 'EY1', 'T'], syllableSplit: [1, 2, 2], start: expect.any(Number), end: expect.any(Number) })
+    expect(word.pronunciations).toBeUndefined()
+    for (const full of [await crew.as.writer.post('/api/analysis', { lines, detail: 'full' }), await crew.as.writer.post('/api/analysis?detail=full', { lines })]) {
+      expect(full.status).toBe(200)
+      const w = full.body.lines[1].words.find((x: { text: string }) => x.text === '808')
+      expect(w).toMatchObject({ pronunciations: [['EY1', 'T', 'OW1', 'EY1', 'T']], method: 'number', syllableParts: [{ phones: ['EY1'], stress: 1 }, { phones: ['T', 'OW1'], stress: 1 }, { phones: ['EY1', 'T'], stress: 1 }] })
+      expect(full.body.scheme).toEqual(slim.body.scheme)
+    }
+    const bad = await crew.as.writer.post('/api/analysis', { lines, detail: 'everything' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields.detail).toMatch(/full/)
+    expect((await crew.as.writer.post('/api/analysis?detail=x', { lines })).status).toBe(400)
+  })
+
+  it('compresses the answer when the client accepts it, to the same JSON', async () => {
+    // HTTP content codings (RFC 9110 §8.4): br (RFC 7932) preferred, then gzip, else none
+    const body = JSON.stringify({ lines })
+    const plain = await crew.as.writer.request('POST', '/api/analysis', body, { 'content-type': 'application/json', 'accept-encoding': 'identity' })
+    expect(plain.headers.get('content-encoding')).toBeNull()
+    for (const [accept, coding] of [['gzip, deflate, br', 'br'], ['gzip', 'gzip'], ['br;q=0, gzip', 'gzip'], ['br, gzip;q=0.5', 'br']]) {
+      const res = await crew.as.writer.request('POST', '/api/analysis', body, { 'content-type': 'application/json', 'accept-encoding': accept })
+      expect(res.status).toBe(200)
+      expect(res.headers.get('content-encoding'), accept).toBe(coding)
+      expect(res.headers.get('vary')).toMatch(/accept-encoding/i)
+      expect(res.body).toEqual(plain.body)
+    }
+  })
+
   it('returns density per section when sections are given', async () => {
     const res = await crew.as.writer.post('/api/analysis', { lines, sections: [{ id: 's1', startBar: 1, endBar: 2, kind: 'verse', label: 'Verse 1' }] })
     expect(res.status).toBe(200)

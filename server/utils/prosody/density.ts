@@ -16,6 +16,18 @@ export const DENSITY_LOOKBACK = 15
 
 export interface DensityWord { phones: readonly string[] }
 
+/**
+ * A lyric as one vowel stream: `vow` the vowel sounds (any comparable ids), `vowelWord` the word
+ * of each vowel, `ends` each word's last vowel position, `ids` each word as transcribed up to its
+ * last vowel (words alike compare equal).
+ */
+export interface DensityStream {
+  vow: ArrayLike<number | string>
+  vowelWord: ArrayLike<number>
+  ends: ArrayLike<number>
+  ids: readonly string[]
+}
+
 /** Mean rhyme length over words 2…n, or null with fewer than two words that hold a vowel. */
 export function rhymeDensity(words: readonly DensityWord[]): number | null {
   const vow: string[] = []
@@ -37,17 +49,26 @@ export function rhymeDensity(words: readonly DensityWord[]): number | null {
     // The reference compares words as transcribed up to their last vowel.
     ids.push(w.phones.slice(0, last + 1).map(base).join(' '))
   }
-  if (ends.length < 2) return null
+  return streamDensity({ vow, vowelWord, ends, ids })
+}
+
+/** `rhymeDensity` over a stream already built (the analysis keeps one per line). */
+export function streamDensity({ vow, vowelWord, ends, ids }: DensityStream): number | null {
+  const n = ends.length
+  if (n < 2) return null
   let total = 0
-  for (let w2 = 1; w2 < ends.length; w2++) {
+  for (let w2 = 1; w2 < n; w2++) {
     let best = 0
+    const p2 = ends[w2]!
     for (let w1 = Math.max(0, w2 - DENSITY_LOOKBACK); w1 < w2; w1++) {
+      // Most pairs differ on their last vowel: skip the call.
+      if (vow[ends[w1]!] !== vow[p2]) continue
       const l = fixedLength(w1, w2)
       if (l > best) best = l
     }
     total += best
   }
-  return total / (ends.length - 1)
+  return total / (n - 1)
 
   function fixedLength(w1: number, w2: number): number {
     if (ids[w1] === ids[w2]) return 0

@@ -1,6 +1,6 @@
 import { base, isVowel, rhymePart, syllableCount, VOWELS } from './arpabet'
 import { COMMON_LISTS as LISTS } from './common-words'
-import { rawPronunciations } from './dictionary'
+import { dictionarySize, eachPronunciation, entryPronunciation } from './dictionary'
 import { concatParts, resolveWord, type Lexicon } from './resolve'
 import { codasAlike, shapeOf } from './rhyme'
 import { tokenize } from './tokenize'
@@ -20,33 +20,32 @@ import { tokenize } from './tokenize'
 
 /**
  * Struct of arrays over the candidate words (one entry per pronunciation), common words first,
- * so every bucket below lists its words in the order the finder shows them.
+ * so every bucket below lists its words in the order the finder shows them. Buckets are
+ * compressed: the ids of bucket b are `ids[start[b]] … ids[start[b + 1] - 1]`.
  */
+interface Buckets { ids: Int32Array, start: Int32Array }
 interface FinderIndex {
   words: string[]
-  /** The dictionary's pronunciation strings (shared with the dictionary object, not copied). */
-  prons: string[]
+  /** Each entry's place in the dictionary data (its pronunciation is read from there on use). */
+  entries: Int32Array
   syllables: Uint8Array
-  /** Rhyme part ("EY D") → entry ids, common first. */
-  perfect: Map<string, number[]>
+  /** Rhyme part ("EY D") → its bucket in `perfect`. */
+  partIds: Map<string, number>
+  perfect: Buckets
   /** Vowels of the rhyme part ("EY") → the distinct rhyme parts that have them. */
   nearParts: Map<string, string[]>
-  /** Last 2, 3 and 4 vowels (as one integer) → entry ids, for multi. */
-  tails: [Map<number, number[]>, Map<number, number[]>, Map<number, number[]>]
+  /** Last 2, 3 and 4 vowels (as one integer) → its bucket in `tails`, for multi. */
+  tailIds: Map<number, number>
+  tails: Buckets
   builtMs: number
 }
 
 let index: FinderIndex | null = null
 
-function push<K>(map: Map<K, number[]>, key: K, id: number) {
-  const list = map.get(key)
-  if (list) list.push(id)
-  else map.set(key, [id])
-}
-
 const VOWEL_ID = new Map<string, number>(VOWELS.map((v, i) => [v, i]))
-const DIGITS = /[012]/g
-const vowelScratch = new Int8Array(64)
+// Vowel id by its two letters, read straight from the data text.
+const VOWEL_BY_CODES = new Int8Array(32 * 32).fill(-1)
+for (const [v, i] of VOWEL_ID) VOWEL_BY_CODES[(v.charCodeAt(0) - 64) * 32 + v.charCodeAt(1) - 64] = i
 
 /** Tail key of the last `k` vowel ids, as one integer (15 vowels fit in 4 bits each). */
 function tailKey(ids: ArrayLike<number>, count: number, k: number): number {
@@ -55,69 +54,154 @@ function tailKey(ids: ArrayLike<number>, count: number, k: number): number {
   return key
 }
 
-/**
- * Scans one pronunciation string without splitting it: fills `vowelScratch` with its vowel ids
- * and returns the vowel count and the rhyme part (from the last primary stress, else the last
- * secondary, else the last vowel; digits stripped).
- */
-function scan(pron: string): { count: number, part: string } {
-  let count = 0
-  let primary = -1
-  let secondary = -1
-  let last = -1
-  let start = 0
-  for (let i = 0; i <= pron.length; i++) {
-    if (i < pron.length && pron.charCodeAt(i) !== 32) continue
-    const d = pron.charCodeAt(i - 1)
-    if (d >= 48 && d <= 50 && count < 64) {
-      vowelScratch[count++] = VOWEL_ID.get(pron.slice(start, i - 1)) ?? 0
-      last = start
-      if (d === 49) primary = start
-      else if (d === 50) secondary = start
-    }
-    start = i + 1
-  }
-  const from = primary >= 0 ? primary : secondary >= 0 ? secondary : last
-  return { count, part: from < 0 ? '' : pron.slice(from).replace(DIGITS, '') }
-}
-
 /** Builds (once) and returns the finder index. */
 export function finderIndex(): FinderIndex {
   if (index) return index
   const started = performance.now()
+  // Sized for the whole dictionary at most (its 135,155 keys), so nothing grows while filling.
+  const most = dictionarySize()
   const words: string[] = []
-  const prons: string[] = []
-  const syl: number[] = []
-  const perfect = new Map<string, number[]>()
+  const entries = new Int32Array(most)
+  const syl = new Uint8Array(most)
+  const partOf = new Int32Array(most)
+  const tailOf = new Int32Array(most * 3) // three slots per entry: tails of 2, 3 and 4 vowels
+  const partIds = new Map<string, number>()
   const nearParts = new Map<string, string[]>()
-  const tails: FinderIndex['tails'] = [new Map(), new Map(), new Map()]
-  for (const [, lists] of LISTS) {
-    const level = lists.flat().filter(w => /^[a-z]+$/.test(w))
-    level.sort((a, b) => a.length - b.length || (a < b ? -1 : a > b ? 1 : 0))
-    for (const word of level) {
-      for (const pron of rawPronunciations(word)) {
-        const id = words.length
-        const { part, count } = scan(pron)
-        words.push(word)
-        prons.push(pron)
-        syl.push(count)
-        if (!part) continue
-        const bucket = perfect.get(part)
-        if (bucket) bucket.push(id)
-        else {
-          perfect.set(part, [id])
-          const v = part.split(' ').filter(isVowel).join(' ')
-          const parts = nearParts.get(v)
-          if (parts) parts.push(part)
-          else nearParts.set(v, [part])
+  const tailIds = new Map<number, number>()
+  // Rhyme parts interned by a hash of their letters as the data has them (stress digits
+  // skipped), so no string is made per pronunciation, only one per distinct part.
+  const PART_BITS = 16
+  const partTable = new Int32Array(1 << PART_BITS) // part id + 1
+  const partMask = (1 << PART_BITS) - 1
+  const partNames: string[] = []
+  const vowels = new Int8Array(64)
+  let word = ''
+  const add = (src: string, from: number, to: number, entry: number) => {
+    let count = 0
+    let primary = -1
+    let secondary = -1
+    let last = -1
+    let kPrimary = -1
+    let kSecondary = -1
+    let start = from
+    for (let i = from; i <= to; i++) {
+      if (i < to && src.charCodeAt(i) !== 32) continue
+      const d = src.charCodeAt(i - 1)
+      if (d >= 48 && d <= 50 && i - start === 3 && count < 64) {
+        vowels[count++] = Math.max(0, VOWEL_BY_CODES[(src.charCodeAt(start) - 64) * 32 + src.charCodeAt(start + 1) - 64]!)
+        last = start
+        if (d === 49) {
+          primary = start
+          kPrimary = count - 1
         }
-        for (let k = 2; k <= 4 && k <= count; k++) push(tails[k - 2]!, tailKey(vowelScratch, count, k), id)
+        else if (d === 50) {
+          secondary = start
+          kSecondary = count - 1
+        }
+      }
+      start = i + 1
+    }
+    const at = primary >= 0 ? primary : secondary >= 0 ? secondary : last
+    const id = words.length
+    words.push(word)
+    entries[id] = entry
+    syl[id] = count
+    partOf[id] = -1
+    tailOf.fill(-1, id * 3, id * 3 + 3)
+    if (at < 0) return
+    let h = 0x811C9DC5
+    let len = 0
+    for (let i = at; i < to; i++) {
+      const c = src.charCodeAt(i)
+      if (c >= 48 && c <= 57) continue
+      h = Math.imul(h ^ c, 0x01000193)
+      len++
+    }
+    let slot = (h >>> 0) & partMask
+    let part = -1
+    while (partTable[slot] !== 0) {
+      const name = partNames[partTable[slot]! - 1]!
+      if (name.length === len) {
+        let j = 0
+        for (let i = at; i < to && j >= 0; i++) {
+          const c = src.charCodeAt(i)
+          if (c >= 48 && c <= 57) continue
+          j = name.charCodeAt(j) === c ? j + 1 : -1
+        }
+        if (j === len) {
+          part = partTable[slot]! - 1
+          break
+        }
+      }
+      slot = (slot + 1) & partMask
+    }
+    if (part < 0) {
+      const name = src.slice(at, to).replace(/[012]/g, '')
+      part = partNames.length
+      partNames.push(name)
+      partTable[slot] = part + 1
+      partIds.set(name, part)
+      // The part's vowels: from the rhyme vowel to the end.
+      let v = ''
+      for (let k = primary >= 0 ? kPrimary : secondary >= 0 ? kSecondary : count - 1; k < count; k++) v += v ? ` ${VOWELS[vowels[k]!]}` : VOWELS[vowels[k]!]
+      const list = nearParts.get(v)
+      if (list) list.push(name)
+      else nearParts.set(v, [name])
+    }
+    partOf[id] = part
+    for (let k = 2; k <= 4 && k <= count; k++) {
+      const key = tailKey(vowels, count, k)
+      let t = tailIds.get(key)
+      if (t === undefined) tailIds.set(key, t = tailIds.size)
+      tailOf[id * 3 + k - 2] = t
+    }
+  }
+  for (const [, lists] of LISTS) {
+    // Shorter words first, then alphabetical: the lists are alphabetical already, so each
+    // length's words are a few sorted runs, which the sort merges in one pass.
+    const byLength: string[][] = []
+    for (const list of lists) {
+      for (const w of list) {
+        let letters = w.length > 0
+        for (let i = 0; i < w.length && letters; i++) letters = w.charCodeAt(i) >= 97 && w.charCodeAt(i) <= 122
+        if (letters) (byLength[w.length] ??= []).push(w)
+      }
+    }
+    for (const same of byLength) {
+      if (!same) continue
+      same.sort()
+      for (const w of same) {
+        word = w
+        eachPronunciation(w, add)
       }
     }
   }
-  index = { words, prons, syllables: Uint8Array.from(syl), perfect, nearParts, tails, builtMs: performance.now() - started }
+  const n = words.length
+  const perfect = bucketsOf(partOf.subarray(0, n), 1, partNames.length)
+  const tails = bucketsOf(tailOf.subarray(0, n * 3), 3, tailIds.size)
+  index = { words, entries: entries.slice(0, n), syllables: syl.slice(0, n), partIds, perfect, nearParts, tailIds, tails, builtMs: performance.now() - started }
   return index
 }
+
+/** Compressed buckets from `slots` per entry of bucket numbers (-1 none), entry order kept inside each. */
+function bucketsOf(bucketOf: Int32Array, slots: number, buckets: number): Buckets {
+  const start = new Int32Array(buckets + 1)
+  for (let i = 0; i < bucketOf.length; i++) if (bucketOf[i]! >= 0) start[bucketOf[i]! + 1]!++
+  for (let b = 0; b < buckets; b++) start[b + 1]! += start[b]!
+  const fill = start.slice(0, buckets)
+  const ids = new Int32Array(start[buckets]!)
+  for (let i = 0; i < bucketOf.length; i++) {
+    const b = bucketOf[i]!
+    if (b >= 0) ids[fill[b]!++] = Math.floor(i / slots)
+  }
+  return { ids, start }
+}
+
+/** The entry ids of one bucket, in order. */
+function bucket(b: Buckets, id: number | undefined): Int32Array {
+  return id === undefined ? EMPTY : b.ids.subarray(b.start[id]!, b.start[id + 1]!)
+}
+const EMPTY = new Int32Array(0)
 
 export interface RhymeCandidate {
   word: string
@@ -209,12 +293,12 @@ export function findRhymes(query: string, options: { lexicon?: Lexicon, limit?: 
     }
   }
 
-  for (const id of idx.perfect.get(queryKey) ?? []) {
+  for (const id of bucket(idx.perfect, idx.partIds.get(queryKey))) {
     if (result.perfect.length >= limit) break
     const word = idx.words[id]!
     if (seen.has(word)) continue
     // Same onset as well is an identical rhyme (sight/site), not a rhyme.
-    const p = idx.prons[id]!.split(' ')
+    const p = entryPronunciation(idx.entries[id]!).split(' ')
     if (p.slice(0, p.length - part.length).map(base).join(' ') === onsetKey) continue
     take(result.perfect, { word, syllables: idx.syllables[id]! })
   }
@@ -224,14 +308,14 @@ export function findRhymes(query: string, options: { lexicon?: Lexicon, limit?: 
     if (other === queryKey) continue
     const oShape = shapeOf(other.split(' '))
     if (!oShape.codas.every((c, i) => codasAlike(c, shape.codas[i]!))) continue
-    const ids = idx.perfect.get(other)!
+    const ids = bucket(idx.perfect, idx.partIds.get(other))
     for (let k = 0; k < ids.length && k < limit * 2; k++) nearIds.push(ids[k]!)
   }
   nearIds.sort((a, b) => a - b)
   for (const id of nearIds) take(result.near, { word: idx.words[id]!, syllables: idx.syllables[id]! })
   // Multi: the longest run of matching vowels from the end, 4 then 3 then 2.
   for (let k = Math.min(4, vowels.length); k >= 2; k--) {
-    const ids = idx.tails[k - 2]!.get(tailKey(vowels.map(v => VOWEL_ID.get(v) ?? 0), vowels.length, k)) ?? []
+    const ids = bucket(idx.tails, idx.tailIds.get(tailKey(vowels.map(v => VOWEL_ID.get(v) ?? 0), vowels.length, k)))
     for (const id of ids) {
       if (result.multi.length >= limit) break
       take(result.multi, { word: idx.words[id]!, syllables: idx.syllables[id]!, matched: k })

@@ -18,8 +18,11 @@ export interface Resolved {
   parts?: string[]
 }
 
-/** A crew's lexicon: normalised word → pronunciations. */
-export type Lexicon = ReadonlyMap<string, string[][]>
+/**
+ * A crew's lexicon: normalised word → pronunciations. Never changed once made (analyses cache
+ * their lines per lexicon object); `version`, when set, names its entries (a digest of them).
+ */
+export type Lexicon = ReadonlyMap<string, string[][]> & { readonly version?: string }
 
 export interface ResolveOptions {
   lexicon?: Lexicon

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest'
 import { parsePhones } from '../../../shared/utils/arpabet'
 import { analyseDraft } from '../../../server/utils/prosody/analyse'
 import { CORRECTIONS } from '../../../server/utils/prosody/corrections'
-import { dictionaryPronunciations, inDictionary } from '../../../server/utils/prosody/dictionary'
+import { dictionaryKeys, dictionaryPronunciations, dictionarySize, inDictionary, rawPronunciations, rawValue } from '../../../server/utils/prosody/dictionary'
 import { resolveWord } from '../../../server/utils/prosody/resolve'
 
 const raw = cmu as Record<string, string>
@@ -22,6 +22,22 @@ const headwords = Object.keys(raw).filter(k => /^[a-z]+$/.test(k) && !Object.has
 const several = headwords.filter(w => new Set(cmuProns(w).map(p => digits(p).length)).size > 1)
 
 describe('dictionary words against the CMU Pronouncing Dictionary', () => {
+  it('reads the package\'s data file to the same keys and values as the package exports', () => {
+    // CMU Pronouncing Dictionary via npm cmu-pronouncing-dictionary 3.0.0: its own export is the reference
+    const keys = Object.keys(raw)
+    expect(dictionarySize()).toBe(keys.length)
+    expect(dictionaryKeys()).toEqual(keys)
+    const wrong: string[] = []
+    for (const k of keys) if (rawValue(k) !== clean(raw[k]!)) wrong.push(k)
+    for (const w of headwords) if (rawPronunciations(w).join('|') !== cmuProns(w).map(clean).join('|')) wrong.push(w)
+    expect(wrong).toEqual([])
+    // Only the data's own keys resolve (the dictionary does have "constructor", as a word)
+    for (const k of ['__proto__', 'constructor', 'toString', 'hasOwnProperty', 'valueOf', '', 'word(2)x']) {
+      expect(rawPronunciations(k), k).toEqual(Object.hasOwn(raw, k) ? cmuProns(k).map(clean) : [])
+    }
+    expect(rawPronunciations('__proto__')).toEqual([])
+  })
+
   it('gives every 40th headword the dictionary\'s syllable count and stress pattern', () => {
     // CMU Pronouncing Dictionary: a word's syllables = its stress digits
     const sample = headwords.filter((_, i) => i % 40 === 0)
