@@ -16,24 +16,51 @@ function prepareLexiconQuery() {
 }
 const lexiconQuery = () => (prepared ??= prepareLexiconQuery())
 
-// The last lexicon read per crew, reused while its entries are the same, so the analysis keeps
-// its per-lexicon caches across requests.
-const lastRead = new LRUCache<string, Lexicon>({ max: 1000 })
+// Lexicons by crew, kept until that crew's entries change: every change goes through
+// `lexiconChanged`, which drops the entry here at once and, through NOTIFY, on every other
+// server instance (a lost LISTEN connection drops them all).
+const byCrew = new LRUCache<string, Lexicon>({ max: 1000 })
+// Bumped on every change, so a read that raced with a change is not kept.
+let generation = 0
+const CHANNEL = 'barsmith_lexicon'
+let subscribed = false
+
+function subscribe() {
+  if (subscribed) return
+  subscribed = true
+  void listenTo(CHANNEL, (crewId) => {
+    generation++
+    byCrew.delete(crewId)
+  })
+  onListenerReconnect(() => {
+    generation++
+    byCrew.clear()
+  })
+}
 
 /**
  * A crew's lexicon as the prosody engine reads it: word → pronunciations, with `version` a
- * digest of every entry. Read on every call, so a word taught through any server is used at once.
+ * digest of every entry (the analysis keys its caches by it).
  */
 export async function loadLexicon(crewId: string): Promise<Lexicon> {
+  subscribe()
+  const known = byCrew.get(crewId)
+  if (known) return known
+  const readAt = generation
   const rows = await lexiconQuery().execute({ crewId })
   const version = createHash('sha1').update(rows.map(r => `${r.word}=${r.phones}`).join('\n')).digest('base64url')
-  const known = lastRead.get(crewId)
-  if (known?.version === version) return known
   const map = new Map<string, string[][]>()
   for (const r of rows) map.set(r.word, [r.phones.split(' ')])
   const lexicon: Lexicon = Object.assign(map, { version })
-  lastRead.set(crewId, lexicon)
+  if (readAt === generation) byCrew.set(crewId, lexicon)
   return lexicon
+}
+
+/** Call after a crew's lexicon entries changed (committed): every instance reads them afresh. */
+export async function lexiconChanged(crewId: string) {
+  generation++
+  byCrew.delete(crewId)
+  await useDb().execute(sql`SELECT pg_notify(${CHANNEL}, ${crewId})`)
 }
 
 /**

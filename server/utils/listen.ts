@@ -3,6 +3,8 @@ import pg from 'pg'
 type Handler = (payload: string) => void
 
 const handlers = new Map<string, Set<Handler>>()
+const reconnectHandlers = new Set<() => void>()
+let everConnected = false
 let client: pg.Client | undefined
 let connecting: Promise<void> | undefined
 let retryTimer: ReturnType<typeof setTimeout> | undefined
@@ -30,6 +32,9 @@ async function connect(): Promise<void> {
       await c.connect()
       for (const channel of handlers.keys()) await c.query(`LISTEN "${channel}"`)
       client = c
+      // Notifications sent while the connection was down are lost: let caches start over.
+      if (everConnected) for (const h of reconnectHandlers) h()
+      everConnected = true
     }
     catch {
       await c.end().catch(() => {})
@@ -55,6 +60,14 @@ export async function listenTo(channel: string, handler: Handler): Promise<() =>
   await connect()
   return () => {
     set.delete(handler)
+  }
+}
+
+/** Runs `fn` whenever the LISTEN connection comes back after a loss (notifications may be missed). */
+export function onListenerReconnect(fn: () => void): () => void {
+  reconnectHandlers.add(fn)
+  return () => {
+    reconnectHandlers.delete(fn)
   }
 }
 

@@ -9,6 +9,7 @@ export default defineEventHandler(async (event) => {
     .where(and(eq(lexiconEntries.id, entryId), eq(lexiconEntries.crewId, crewId)))
     .returning({ id: lexiconEntries.id })
   if (!row) throw notFound('Lexicon entry')
+  await lexiconChanged(crewId)
   setResponseStatus(event, 204)
   return null
 })

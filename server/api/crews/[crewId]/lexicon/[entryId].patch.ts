@@ -15,5 +15,6 @@ export default defineEventHandler(async (event) => {
     .where(and(eq(lexiconEntries.id, entryId), eq(lexiconEntries.crewId, crewId)))
     .returning()
   if (!row) throw notFound('Lexicon entry')
+  await lexiconChanged(crewId)
   return lexiconJson(row)
 })

@@ -11,6 +11,7 @@ export default defineEventHandler(async (event) => {
     .onConflictDoNothing({ target: [lexiconEntries.crewId, lexiconEntries.word] })
     .returning()
   if (!row) throw createError({ statusCode: 409, message: `The crew already has "${body.word}" in its lexicon; edit that entry instead.`, data: { fields: { word: 'Already in the lexicon.' } } })
+  await lexiconChanged(crewId)
   setResponseStatus(event, 201)
   return lexiconJson(row)
 })
