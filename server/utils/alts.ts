@@ -11,16 +11,14 @@ import { notifyAltDecided, notifyLineWriter } from './notifications'
 import { altFigures } from './alt-figures'
 
 /** Loads the alt behind the `altId` route parameter and checks `action` in its song's crew. */
-export async function requireAltAccess(event: H3Event, action: Action, param = 'altId') {
-  await requireUser(event)
-  const altId = idParam(event, param, 'Alt')
-  const [row] = await useDb().select({ alt: alts, draft: drafts, song: songs }).from(alts)
-    .innerJoin(drafts, eq(drafts.id, alts.draftId))
-    .innerJoin(songs, eq(songs.id, drafts.songId))
-    .where(eq(alts.id, altId))
-  if (!row) throw notFound('Alt')
-  const access = await requireCrewAccess(event, row.song.crewId, action, 'Alt')
-  return { ...access, alt: row.alt, draft: row.draft, song: row.song }
+export function requireAltAccess(event: H3Event, action: Action, param = 'altId') {
+  return requireRowAccess(event, action, param, 'Alt', async (id) => {
+    const [row] = await useDb().select({ alt: alts, draft: drafts, song: songs }).from(alts)
+      .innerJoin(drafts, eq(drafts.id, alts.draftId))
+      .innerJoin(songs, eq(songs.id, drafts.songId))
+      .where(eq(alts.id, id))
+    return row
+  })
 }
 
 const decider = sql<string | null>`(SELECT u.name FROM users u WHERE u.id = ${alts.decidedBy})`

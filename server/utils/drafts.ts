@@ -9,27 +9,35 @@ import { drafts, sideSaves, songs, versions, type Draft, type Version } from '..
 import type { DbOrTx } from './db'
 
 /** Loads the draft behind the `draftId` route parameter and checks `action` in its song's crew. */
-export async function requireDraftAccess(event: H3Event, action: Action, param = 'draftId') {
-  await requireUser(event)
-  const draftId = idParam(event, param, 'Draft')
-  const [row] = await useDb().select({ draft: drafts, song: songs }).from(drafts)
-    .innerJoin(songs, eq(songs.id, drafts.songId)).where(eq(drafts.id, draftId))
-  if (!row) throw notFound('Draft')
-  const access = await requireCrewAccess(event, row.song.crewId, action, 'Draft')
-  return { ...access, draft: row.draft, song: row.song }
+export function requireDraftAccess(event: H3Event, action: Action, param = 'draftId') {
+  return requireRowAccess(event, action, param, 'Draft', async (id) => {
+    const [row] = await useDb().select({ draft: drafts, song: songs }).from(drafts)
+      .innerJoin(songs, eq(songs.id, drafts.songId))
+      .where(eq(drafts.id, id))
+    return row
+  })
 }
 
 /** Loads the version behind the `versionId` route parameter and checks `action` in its crew. */
-export async function requireVersionAccess(event: H3Event, action: Action, param = 'versionId') {
-  await requireUser(event)
-  const versionId = idParam(event, param, 'Version')
-  const [row] = await useDb().select({ version: versions, draft: drafts, song: songs }).from(versions)
-    .innerJoin(drafts, eq(drafts.id, versions.draftId))
-    .innerJoin(songs, eq(songs.id, drafts.songId))
-    .where(eq(versions.id, versionId))
-  if (!row) throw notFound('Version')
-  const access = await requireCrewAccess(event, row.song.crewId, action, 'Version')
-  return { ...access, version: row.version, draft: row.draft, song: row.song }
+export function requireVersionAccess(event: H3Event, action: Action, param = 'versionId') {
+  return requireRowAccess(event, action, param, 'Version', async (id) => {
+    const [row] = await useDb().select({ version: versions, draft: drafts, song: songs }).from(versions)
+      .innerJoin(drafts, eq(drafts.id, versions.draftId))
+      .innerJoin(songs, eq(songs.id, drafts.songId))
+      .where(eq(versions.id, id))
+    return row
+  })
+}
+
+/** Loads the kept-aside save behind the `sideSaveId` route parameter and checks `action` in its crew. */
+export function requireSideSaveAccess(event: H3Event, action: Action, param = 'sideSaveId') {
+  return requireRowAccess(event, action, param, 'Kept-aside save', async (id) => {
+    const [row] = await useDb().select({ side: sideSaves, draft: drafts, song: songs }).from(sideSaves)
+      .innerJoin(drafts, eq(drafts.id, sideSaves.draftId))
+      .innerJoin(songs, eq(songs.id, drafts.songId))
+      .where(eq(sideSaves.id, id))
+    return row
+  })
 }
 
 /**

@@ -78,25 +78,23 @@ export async function listSignoffViews(db: DbOrTx, songId: string): Promise<Sign
 }
 
 /** Loads the sign-off request behind the `signoffId` route parameter and checks `action` in its crew. */
-export async function requireSignoffAccess(event: H3Event, action: Action, param = 'signoffId') {
-  await requireUser(event)
-  const id = idParam(event, param, 'Sign-off')
-  const [row] = await useDb().select({ request: signoffRequests, song: songs }).from(signoffRequests)
-    .innerJoin(songs, eq(songs.id, signoffRequests.songId)).where(eq(signoffRequests.id, id))
-  if (!row) throw notFound('Sign-off')
-  const access = await requireCrewAccess(event, row.song.crewId, action, 'Sign-off')
-  return { ...access, request: row.request, song: row.song }
+export function requireSignoffAccess(event: H3Event, action: Action, param = 'signoffId') {
+  return requireRowAccess(event, action, param, 'Sign-off', async (id) => {
+    const [row] = await useDb().select({ request: signoffRequests, song: songs }).from(signoffRequests)
+      .innerJoin(songs, eq(songs.id, signoffRequests.songId))
+      .where(eq(signoffRequests.id, id))
+    return row
+  })
 }
 
 /** Loads the seal behind the `sealId` route parameter and checks `action` in its crew. */
-export async function requireSealAccess(event: H3Event, action: Action, param = 'sealId') {
-  await requireUser(event)
-  const id = idParam(event, param, 'Seal')
-  const [row] = await useDb().select({ seal: seals, song: songs }).from(seals)
-    .innerJoin(songs, eq(songs.id, seals.songId)).where(eq(seals.id, id))
-  if (!row) throw notFound('Seal')
-  const access = await requireCrewAccess(event, row.song.crewId, action, 'Seal')
-  return { ...access, seal: row.seal, song: row.song }
+export function requireSealAccess(event: H3Event, action: Action, param = 'sealId') {
+  return requireRowAccess(event, action, param, 'Seal', async (id) => {
+    const [row] = await useDb().select({ seal: seals, song: songs }).from(seals)
+      .innerJoin(songs, eq(songs.id, seals.songId))
+      .where(eq(seals.id, id))
+    return row
+  })
 }
 
 function assertSignable(roster: Awaited<ReturnType<typeof crewRoster>>, userIds: readonly string[]) {
