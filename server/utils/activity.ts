@@ -1,6 +1,6 @@
-import { and, desc, eq, isNotNull } from 'drizzle-orm'
+import { and, desc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
-import { drafts, sealLifts, seals, signoffRequests, signoffSigners, users, versions } from '../database/schema'
+import { alts, drafts, sealLifts, seals, signoffRequests, signoffSigners, users, versions } from '../database/schema'
 import type { DbOrTx } from './db'
 
 export type ActivityKind
@@ -105,11 +105,37 @@ const sealSource: Source = async (db, songId, limit) => {
   return out
 }
 
-/**
- * Where the song's timeline comes from. Alts (taken / passed) belong to the alts area: add
- * its source here, returning entries of kind 'alt.taken' and 'alt.passed', when its table lands.
- */
-export const ACTIVITY_SOURCES: Source[] = [versionSource, signoffSource, sealSource]
+const quote = (text: string) => `"${text.length > 60 ? `${text.slice(0, 57).trimEnd()}…` : text}"`
+
+const altSource: Source = async (db, songId, limit) => {
+  const author = alias(users, 'alt_author')
+  const decider = alias(users, 'alt_decider')
+  const rows = await db.select({ alt: alts, draftName: drafts.name, author: author.name, decider: decider.name, number: versions.number })
+    .from(alts)
+    .innerJoin(drafts, eq(drafts.id, alts.draftId))
+    .leftJoin(author, eq(author.id, alts.authorId))
+    .leftJoin(decider, eq(decider.id, alts.decidedBy))
+    .leftJoin(versions, eq(versions.id, alts.takenVersionId))
+    .where(and(eq(drafts.songId, songId), inArray(alts.status, ['taken', 'passed']), isNotNull(alts.decidedAt)))
+    .orderBy(desc(alts.decidedAt)).limit(limit)
+  return rows.map(({ alt, draftName, author: by, decider: who, number }) => {
+    const whose = by ? `${by}'s alt` : 'an alt'
+    return alt.status === 'taken'
+      ? {
+          at: alt.decidedAt!.toISOString(), kind: 'alt.taken' as const, by: who,
+          summary: `${who ?? 'Someone'} took ${whose} for ${quote(alt.lineText)}${number ? ` into version ${number}` : ''} of "${draftName}"`,
+          detail: alt.text, draftId: alt.draftId, versionId: alt.takenVersionId,
+        }
+      : {
+          at: alt.decidedAt!.toISOString(), kind: 'alt.passed' as const, by: who,
+          summary: `${who ?? 'Someone'} passed on ${whose} for ${quote(alt.lineText)} in "${draftName}"`,
+          detail: alt.text, draftId: alt.draftId,
+        }
+  })
+}
+
+/** Where the song's timeline comes from; each area adds its own source. */
+export const ACTIVITY_SOURCES: Source[] = [versionSource, signoffSource, sealSource, altSource]
 
 // Steps at the same moment (the last approval and its seal) are shown in the order they happen.
 const STEP: Record<ActivityKind, number> = {
@@ -120,5 +146,7 @@ const STEP: Record<ActivityKind, number> = {
 /** The song's timeline, newest first. */
 export async function songActivity(db: DbOrTx, songId: string, limit = 200): Promise<ActivityEntry[]> {
   const all = (await Promise.all(ACTIVITY_SOURCES.map(s => s(db, songId, limit)))).flat()
-  return all.sort((a, b) => (a.at < b.at ? 1 : a.at > b.at ? -1 : STEP[b.kind] - STEP[a.kind])).slice(0, limit)
+  // A taken alt and the version it made are one step: the alt's entry says more.
+  const takenInto = new Set(all.filter(e => e.kind === 'alt.taken' && e.versionId).map(e => e.versionId))
+  return all.filter(e => !(e.kind === 'version' && takenInto.has(e.versionId))).sort((a, b) => (a.at < b.at ? 1 : a.at > b.at ? -1 : STEP[b.kind] - STEP[a.kind])).slice(0, limit)
 }

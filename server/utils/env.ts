@@ -16,6 +16,7 @@ const EnvSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   UPLOAD_LIMIT_MB: z.coerce.number().positive().default(200),
+  SCRATCH_LIMIT_MB: z.coerce.number().positive().default(25),
   BARSMITH_SEED_DEMO: z.enum(['0', '1']).default('0'),
   DEMO_PASSWORD: z.string().min(10).default('barsmith-demo'),
   BARSMITH_WORKERS: z.enum(['0', '1']).default('1'),

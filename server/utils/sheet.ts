@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, isNull } from 'drizzle-orm'
 import PDFDocument from 'pdfkit'
 import { crews, drafts, memberships, sealLifts, seals, songs, users, versions } from '../database/schema'
-import { formatClock } from '../../shared/utils/bar-time'
+import { formatMinutes } from '../../shared/utils/grid'
 import { formatShare, SPLIT_CAUTION, totalBp } from '../../shared/utils/shares'
 import { creditLine, gridLine, sheetSections, versionLabel, type SheetModel } from '../../shared/utils/sheet'
 import type { DbOrTx } from './db'
@@ -162,7 +162,7 @@ export async function renderSheetPdf(model: SheetModel): Promise<Buffer> {
       const y = doc.y
       doc.font('L').fontSize(8.5).fillColor(FAINT)
         .text(String(line.bar), left, y + 3, { width: 26, align: 'right', lineBreak: false })
-        .text(formatClock(line.startMs), left + 32, y + 3, { width: 38, lineBreak: false })
+        .text(formatMinutes(line.startMs), left + 32, y + 3, { width: 38, lineBreak: false })
       doc.x = textX
       doc.y = y
       line.segments.forEach((seg, i) => {

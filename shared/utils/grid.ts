@@ -142,6 +142,40 @@ export function projectBarOfLyricBar(g: Pick<Grid, 'feel'>, lyricBar: number): n
   return (lyricBar - 1) * barsPerLyricBar(g) + 1
 }
 
+/** An exact time in milliseconds: num / den (den > 0). */
+export interface ExactMs { num: bigint, den: bigint }
+
+/**
+ * The exact start of lyric bar `lyricBar` (from 1), plus `part` / `parts` of that bar when
+ * several lines share it (line `part` of `parts`, from 0). Kept as a fraction so a time far
+ * into the song is rounded once, never summed from rounded bar lengths (timed text needs it).
+ */
+export function lyricBarStartExact(g: Grid, lyricBar: number, part = 0, parts = 1): ExactMs {
+  assertGrid(g)
+  if (!Number.isInteger(lyricBar) || !Number.isInteger(part) || !Number.isInteger(parts) || parts < 1) throw new RangeError('Bars and parts are whole numbers.')
+  // ms since bar 1 = ((bar−1)·parts + part) · k · beatsPerBar · 60 000 / (parts · BPM), k project bars per lyric bar
+  const barsNum = (BigInt(lyricBar - 1) * BigInt(parts) + BigInt(part)) * BigInt(barsPerLyricBar(g)) * BigInt(g.beatsPerBar) * 60_000n * MILLI_BPM
+  const den = BigInt(parts) * bpmMilli(g)
+  // offsetMs has up to three decimals: offset = offset µs / 1000 ms
+  return { num: barsNum * 1000n + toMicros(g.offsetMs) * den, den: den * 1000n }
+}
+
+/** Rounds an exact time to whole milliseconds, halves away from zero. */
+export function roundMs(t: ExactMs): number {
+  const sign = (t.num < 0n) !== (t.den < 0n) ? -1n : 1n
+  const a = t.num < 0n ? -t.num : t.num
+  const b = t.den < 0n ? -t.den : t.den
+  return Number(sign * ((2n * a + b) / (2n * b)))
+}
+
+/** The start of lyric bar `lyricBar` (or of its `part` of `parts`) in whole milliseconds. */
+export function lyricBarStartMs(g: Grid, lyricBar: number, part = 0, parts = 1): number {
+  return roundMs(lyricBarStartExact(g, lyricBar, part, parts))
+}
+
+/** True when exact time `a` comes before `b`. */
+export const exactBefore = (a: ExactMs, b: ExactMs) => a.num * b.den < b.num * a.den
+
 /** Project bars that `lyricBars` lyric bars cover (a "16" at half-time covers 32). */
 export function projectBarsFor(g: Pick<Grid, 'feel'>, lyricBars: number): number {
   return lyricBars * barsPerLyricBar(g)
@@ -189,6 +223,12 @@ export function formatClock(ms: number, alwaysHours = false): string {
   const t = abs % 1000
   const pad = (n: number, w = 2) => String(n).padStart(w, '0')
   return `${sign}${h || alwaysHours ? `${pad(h)}:` : ''}${pad(m)}:${pad(s)}.${pad(t, 3)}`
+}
+
+/** `m:ss` for a sheet's margin (the song's own clock, whole seconds). */
+export function formatMinutes(ms: number): string {
+  const total = Math.floor(Math.max(0, ms) / 1000)
+  return `${Math.floor(total / 60)}:${String(total % 60).padStart(2, '0')}`
 }
 
 /** Tempo halved and doubled, kept within the grid's range. */

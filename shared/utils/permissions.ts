@@ -53,6 +53,8 @@ export const PERMISSIONS = {
   'beat.upload': ['owner', 'producer'],
   'grid.edit': ['owner', 'producer'],
   'section.edit': ['owner', 'producer'],
+  // scratch takes: recording, renaming and deleting one's own (listening is 'song.view')
+  'scratch.record': ['owner', 'producer', 'writer', 'cowriter'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Action = keyof typeof PERMISSIONS

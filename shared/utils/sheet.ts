@@ -3,7 +3,7 @@
  * left off), grouped by the document's sections, each line timed from the grid. The page,
  * the PDF, the WebVTT and the plain-text exports are all drawn from this one model.
  */
-import { formatClock, formatTimestamp, lyricBarStart, roundMs, type BarGrid, type ExactMs } from './bar-time'
+import { exactBefore, formatClock, formatMinutes, lyricBarStartExact, roundMs, type ExactMs, type Grid } from './grid'
 import type { LyricDoc, LyricLine } from './lyric-doc'
 import { formatShare } from './shares'
 
@@ -34,7 +34,7 @@ export interface SheetModel {
   title: string
   crewName: string
   version: { id: string, number: number, draftId: string, draftName: string, createdAt: string }
-  grid: BarGrid
+  grid: Grid
   seal: { id: string, sealedAt: string, signers: Array<{ name: string, role: string }> } | null
   credits: { writers: string[], producers: string[] }
   sections: SheetSection[]
@@ -62,14 +62,12 @@ export function isPerformed(line: Pick<LyricLine, 'text' | 'out'>): boolean {
   return !line.out && line.text.trim().length > 0
 }
 
-const less = (a: ExactMs, b: ExactMs) => a.num * b.den < b.num * a.den
-
 /**
  * Start and end of every performed line. Lines sharing a bar divide it equally; a line runs
  * from its start to the next performed line's start, and no further than its own bars reach
  * (so open bars for the beat show no words).
  */
-export function timeLines(grid: BarGrid, lines: readonly LyricLine[]): Map<string, { startMs: number, endMs: number }> {
+export function timeLines(grid: Grid, lines: readonly LyricLine[]): Map<string, { startMs: number, endMs: number }> {
   const performed = lines.map((l, i) => ({ l, i })).filter(x => isPerformed(x.l))
     .sort((a, b) => a.l.bar - b.l.bar || a.i - b.i).map(x => x.l)
   const countInBar = new Map<number, number>()
@@ -81,13 +79,13 @@ export function timeLines(grid: BarGrid, lines: readonly LyricLine[]): Map<strin
     const part = seen.get(l.bar) ?? 0
     const parts = countInBar.get(l.bar)!
     seen.set(l.bar, part + 1)
-    starts.push(lyricBarStart(grid, l.bar, part, parts))
-    ownEnds.push(part + 1 < parts ? lyricBarStart(grid, l.bar, part + 1, parts) : lyricBarStart(grid, l.bar + (l.bars ?? 1)))
+    starts.push(lyricBarStartExact(grid, l.bar, part, parts))
+    ownEnds.push(part + 1 < parts ? lyricBarStartExact(grid, l.bar, part + 1, parts) : lyricBarStartExact(grid, l.bar + (l.bars ?? 1)))
   }
   const out = new Map<string, { startMs: number, endMs: number }>()
   performed.forEach((l, k) => {
     const next = starts[k + 1]
-    const end = next && less(next, ownEnds[k]!) ? next : ownEnds[k]!
+    const end = next && exactBefore(next, ownEnds[k]!) ? next : ownEnds[k]!
     out.set(l.id, { startMs: roundMs(starts[k]!), endMs: roundMs(end) })
   })
   return out
@@ -96,7 +94,7 @@ export function timeLines(grid: BarGrid, lines: readonly LyricLine[]): Map<strin
 const KIND_LABELS: Record<string, string> = { 'intro': 'Intro', 'verse': 'Verse', 'hook': 'Hook', 'pre-hook': 'Pre-hook', 'bridge': 'Bridge', 'break': 'Break', 'outro': 'Outro' }
 
 /** The sections of a document with their performed, timed lines; loose lines form unnamed runs. */
-export function sheetSections(doc: LyricDoc, lines: readonly LyricLine[], grid: BarGrid): { sections: SheetSection[], omitted: number } {
+export function sheetSections(doc: LyricDoc, lines: readonly LyricLine[], grid: Grid): { sections: SheetSection[], omitted: number } {
   const times = timeLines(grid, lines)
   const byId = new Map(lines.map(l => [l.id, l]))
   const sections: SheetSection[] = []
@@ -138,7 +136,7 @@ export function creditLine(model: Pick<SheetModel, 'credits'>): string {
   return parts.join(' · ')
 }
 
-export function gridLine(grid: BarGrid): string {
+export function gridLine(grid: Grid): string {
   return `${grid.bpm} BPM · ${grid.beatsPerBar} beats per bar${grid.feel === 'half' ? ' · half-time feel' : ''} · bar 1 at ${(grid.offsetMs / 1000).toFixed(3)} s`
 }
 
@@ -159,7 +157,7 @@ export function renderVtt(model: SheetModel): string {
     '',
   ]
   for (const c of cues) {
-    out.push(noArrow(`bar ${c.bar} ${c.id}`), `${formatTimestamp(c.startMs)} --> ${formatTimestamp(c.endMs)}`, cueText(c.text.trim()), '')
+    out.push(noArrow(`bar ${c.bar} ${c.id}`), `${formatClock(c.startMs, true)} --> ${formatClock(c.endMs, true)}`, cueText(c.text.trim()), '')
   }
   return out.join('\n')
 }
@@ -172,7 +170,7 @@ export function renderText(model: SheetModel): string {
   out.push(gridLine(model.grid), '')
   for (const s of model.sections) {
     if (s.heading) out.push(`[${s.heading.toUpperCase()}]`)
-    for (const l of s.lines) out.push(`${String(l.bar).padStart(4)}  ${formatClock(l.startMs).padStart(5)}  ${l.text.trim()}`)
+    for (const l of s.lines) out.push(`${String(l.bar).padStart(4)}  ${formatMinutes(l.startMs).padStart(5)}  ${l.text.trim()}`)
     out.push('')
   }
   if (model.split?.lines.length) {

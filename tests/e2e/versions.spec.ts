@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
-import { launchBrowser, newPage, screenshot, signInDemo } from '../support/browser'
+import { hydrated, launchBrowser, newPage, screenshot, signInDemo } from '../support/browser'
 import { asDemo, type ApiClient } from '../support/http'
 
 let browser: Browser
@@ -91,6 +91,7 @@ describe('unsaved text is never lost', () => {
     const { page, context, pageErrors } = await newPage(browser)
     await signInDemo(page, 'writer')
     await page.goto(`/songs/${songId}/lines`)
+    await hydrated(page)
     await page.getByRole('button', { name: 'Edit lines' }).click()
     // Saves get no answer: as if the connection dropped.
     const drop = (route: any) => (route.request().method() === 'POST' ? route.abort('internetdisconnected') : route.continue())
@@ -101,6 +102,7 @@ describe('unsaved text is never lost', () => {
     await screenshot(page, 'saver-offline')
 
     await page.reload()
+    await hydrated(page)
     await page.getByRole('button', { name: 'Edit lines' }).click()
     await page.getByTestId('saver-restored').waitFor()
     expect(await page.getByTestId('edit-e3').inputValue()).toBe('Keys in my fist and a hook in my chest')
@@ -121,6 +123,7 @@ describe('unsaved text is never lost', () => {
     const { page, context, pageErrors } = await newPage(browser)
     await signInDemo(page, 'writer')
     await page.goto(`/songs/${songId}/lines`)
+    await hydrated(page)
     await page.getByRole('button', { name: 'Edit lines' }).click()
     await page.getByTestId('edit-e1').waitFor()
     // Meanwhile the owner saves a change to bar 4.

@@ -28,6 +28,11 @@ describe('the finished demo song', () => {
     expect(tree.cues).toHaveLength(34)
     // Bar 5 at 88 BPM with a 120 ms lead-in: 0.12 + 4 × 240 / 88 s (DOMAIN.md §1 formula).
     expect(Math.round(tree.cues[2].startTime * 1000)).toBe(Math.round(120 + 4 * 240_000 / 88))
+    // Its sections are rows of the song (as the beat room makes them), and the sealed document's blocks point at them.
+    const sections = (await listener.get(`/api/songs/${song.id}/sections`)).body
+    expect(sections.map((s: any) => [s.kind, s.startBar, s.endBar])).toEqual([['intro', 1, 4], ['hook', 5, 12], ['verse', 13, 28], ['hook', 29, 36]])
+    const version = (await listener.get(`/api/versions/${seal.versionId}`)).body
+    expect(version.doc.content.map((b: any) => b.attrs.sectionId)).toEqual(sections.map((s: any) => s.id))
     const activity = (await listener.get(`/api/songs/${song.id}/activity`)).body
     expect(activity.map((a: any) => a.kind).slice(0, 5)).toEqual(['seal', 'signoff.approved', 'signoff.approved', 'signoff.approved', 'signoff.requested'])
   })

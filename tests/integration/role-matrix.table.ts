@@ -73,6 +73,15 @@ const songWithSections = async (ctx: MatrixContext, count: number) => {
 
 const emailOf = (ctx: MatrixContext, p: Principal) => (p === 'anonymous' ? email() : ctx.crew.users[p].email)
 
+// A scratch take on a new song, recorded by `by` (the writer when `by` may not record).
+const takeBy = async (ctx: MatrixContext, by: Principal) => {
+  const songId = await ctx.song()
+  const who: Role = allowed(by, 'scratch.record') ? by as Role : 'writer'
+  const res = await ctx.crew.as[who].post(`/api/songs/${songId}/takes?bar=3&durationMs=1000`, audioForm(smallWav({ bars: 1 }), 'take.wav'))
+  return { songId, takeId: res.body.id as string }
+}
+let sharedTake: ReturnType<typeof takeBy> | undefined
+
 export const MATRIX: MatrixCase[] = [
   // accounts
   { method: 'POST', route: '/api/auth/register', access: 'public', ok: 201, prepare: async () => ({ body: { name: 'Matrix', email: email(), password: 'long-enough-pass' } }) },
@@ -205,6 +214,14 @@ export const MATRIX: MatrixCase[] = [
     },
   },
   { method: 'GET', route: '/api/songs/[songId]/activity', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await shared.seal(ctx)).songId } }) },
+  // scratch takes
+  { method: 'GET', route: '/api/songs/[songId]/takes', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await (sharedTake ??= takeBy(ctx, 'writer'))).songId } }) },
+  { method: 'POST', route: '/api/songs/[songId]/takes', access: 'scratch.record', ok: 201, prepare: async ctx => ({ params: { songId: await ctx.song() }, query: { bar: '5', durationMs: '1000' }, body: audioForm(smallWav({ bars: 1 }), 'take.wav') }) },
+  { method: 'PATCH', route: '/api/songs/[songId]/takes/[takeId]', access: 'scratch.record', ok: 200, prepare: async (ctx, p) => ({ params: await takeBy(ctx, p), body: { name: 'Renamed take' } }) },
+  { method: 'DELETE', route: '/api/songs/[songId]/takes/[takeId]', access: 'scratch.record', ok: 204, prepare: async (ctx, p) => ({ params: await takeBy(ctx, p) }) },
+  { method: 'GET', route: '/api/songs/[songId]/takes/[takeId]/audio', access: 'song.view', ok: 200, prepare: async ctx => ({ params: await (sharedTake ??= takeBy(ctx, 'writer')) }) },
+  // vocal map
+  { method: 'GET', route: '/api/songs/[songId]/vocal-map', access: 'song.view', ok: 200, prepare: async ctx => ({ params: { songId: (await ctx.draft()).songId } }) },
   // prosody: analysis, rhyme finder, crew lexicon
   { method: 'POST', route: '/api/analysis', access: 'user', ok: 200, prepare: async () => ({ body: { lines: [{ id: 'a', bar: 1, text: 'night bus home' }] } }) },
   { method: 'GET', route: '/api/rhymes', access: 'user', ok: 200, prepare: async () => ({ query: { q: 'night' } }) },

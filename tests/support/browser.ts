@@ -6,9 +6,10 @@ import { DEMO_EMAILS, DEMO_PASSWORD } from './http'
 
 /**
  * Debian's Chromium, started with no network side-channels. Playwright gives every launch
- * a fresh temporary profile (user data dir) of its own.
+ * a fresh temporary profile (user data dir) of its own. `fakeMedia` gives it a synthetic
+ * microphone that needs no permission prompt.
  */
-export async function launchBrowser(): Promise<{ browser: Browser, close: () => Promise<void> }> {
+export async function launchBrowser(options: { fakeMedia?: boolean } = {}): Promise<{ browser: Browser, close: () => Promise<void> }> {
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     headless: true,
@@ -16,6 +17,8 @@ export async function launchBrowser(): Promise<{ browser: Browser, close: () => 
       '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
       '--disable-background-networking', '--disable-component-update', '--disable-sync',
       '--autoplay-policy=no-user-gesture-required',
+      // A synthetic microphone (a beep) that needs no permission prompt, for recording tests.
+      ...(options.fakeMedia ? ['--use-fake-device-for-media-stream', '--use-fake-ui-for-media-stream'] : []),
     ],
   })
   return {
@@ -67,4 +70,9 @@ export const ARTIFACTS = resolve(process.cwd(), 'test-results')
 export async function screenshot(page: Page, name: string) {
   mkdirSync(ARTIFACTS, { recursive: true })
   await page.screenshot({ path: resolve(ARTIFACTS, `${name}.png`), fullPage: true })
+}
+
+/** Waits until Vue has mounted the page, so clicks on server-rendered buttons reach their handlers. */
+export async function hydrated(page: Page) {
+  await page.waitForFunction(() => !!(document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__)
 }

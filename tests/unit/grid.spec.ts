@@ -1,8 +1,8 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import {
-  barAt, barCount, barDurationMs, barRangeMs, barStartMs, barStartSample, formatClock, lyricBarOf, nearestBarStart,
-  positionAt, projectBarOfLyricBar, projectBarsFor, samplesPerBar, tapTempo, tempoOctaves, type Grid,
+  barAt, barCount, barDurationMs, barRangeMs, barStartMs, barStartSample, formatClock, formatMinutes, lyricBarOf, lyricBarStartExact,
+  lyricBarStartMs, nearestBarStart, positionAt, projectBarOfLyricBar, projectBarsFor, roundMs, samplesPerBar, tapTempo, tempoOctaves, type Grid,
 } from '../../shared/utils/grid'
 
 const g = (bpm: number, beatsPerBar = 4, offsetMs = 0, feel: Grid['feel'] = 'normal'): Grid => ({ bpm, beatsPerBar, offsetMs, feel })
@@ -109,5 +109,78 @@ describe('tap tempo and helpers', () => {
   it('offers the half and double tempo', () => {
     expect(tempoOctaves(90)).toEqual([45, 180])
     expect(tempoOctaves(200)).toEqual([100])
+  })
+})
+
+describe('lyric bar starts, exact and rounded once', () => {
+  // Check values from DOMAIN.md §1 (arithmetic: bar n starts at offset + (n − 1) × beatsPerBar × 60 / BPM).
+  it('puts bar 2 at 90 BPM exactly 8/3 s in', () => {
+    const t = lyricBarStartExact(g(90), 2)
+    expect(t.num * 3n).toBe(t.den * 8000n)
+    expect(lyricBarStartMs(g(90), 2)).toBe(2667)
+  })
+
+  it('matches the 4/4 check values for 70, 140 and 160 BPM', () => {
+    expect(lyricBarStartMs(g(70), 2)).toBe(3429) // 3.4286 s
+    expect(lyricBarStartMs(g(140), 2)).toBe(1714) // 1.7143 s
+    expect(lyricBarStartMs(g(140), 17)).toBe(27429) // 16 bars, 27.429 s
+    expect(lyricBarStartMs(g(160), 2)).toBe(1500)
+    expect(lyricBarStartMs(g(90), 17)).toBe(42667) // 16 bars, 42.667 s
+  })
+
+  it('adds the offset of bar 1 (0.5 s lead-in at 90 BPM: bar 5 at 11.1667 s) and counts meters in quarters', () => {
+    expect(lyricBarStartMs(g(90, 4, 500), 5)).toBe(11167)
+    expect(lyricBarStartMs(g(90, 4, 500), 1)).toBe(500)
+    expect(lyricBarStartMs(g(90, 3), 2)).toBe(2000) // 3/4 at 90 → 2.000 s a bar
+  })
+
+  it('spans two project bars per lyric bar under a half-time feel (a 16 over 140 BPM covers 54.857 s)', () => {
+    // DOMAIN.md §1: at half-time tempos a "16" over a 140 BPM beat covers 32 project bars [common practice, arithmetic].
+    expect(lyricBarStartMs(g(140, 4, 0, 'half'), 17)).toBe(54857)
+    expect(lyricBarStartMs(g(140, 4, 0, 'half'), 2)).toBe(lyricBarStartMs(g(140), 3))
+  })
+
+  it('rounds from the exact time, never sums rounded bar lengths', () => {
+    // 999 bars of 8/3 s = 2664 s exactly; 999 × 2667 ms would drift by a third of a second.
+    expect(lyricBarStartMs(g(90), 1000)).toBe(2_664_000)
+    expect(999 * lyricBarStartMs(g(90), 2)).not.toBe(2_664_000)
+  })
+
+  it('divides a bar shared by several lines into equal parts', () => {
+    expect(lyricBarStartMs(g(90), 3, 1, 2)).toBe(Math.round(2.5 * 8000 / 3))
+    expect(lyricBarStartMs(g(90), 3, 2, 2)).toBe(lyricBarStartMs(g(90), 4))
+  })
+
+  it('stays within half a millisecond of the float formula and of barStartMs for any grid (property)', () => {
+    fc.assert(fc.property(
+      fc.integer({ min: 30_000, max: 300_000 }), fc.integer({ min: 1, max: 7 }), fc.integer({ min: 0, max: 10_000_000 }), fc.integer({ min: 1, max: 2000 }), fc.boolean(),
+      (milliBpm, bpb, offsetMicros, bar, half) => {
+        const grid = g(milliBpm / 1000, bpb, offsetMicros / 1000, half ? 'half' : 'normal')
+        const float = grid.offsetMs + (bar - 1) * (half ? 2 : 1) * bpb * 60_000 / grid.bpm
+        expect(Math.abs(lyricBarStartMs(grid, bar) - float)).toBeLessThanOrEqual(0.5 + 1e-6)
+        expect(Math.abs(lyricBarStartMs(grid, bar) - barStartMs(grid, projectBarOfLyricBar(grid, bar)))).toBeLessThanOrEqual(0.5 + 1e-6)
+      },
+    ))
+  })
+
+  it('rounds halves away from zero and refuses fractional bars', () => {
+    expect(roundMs({ num: 5n, den: 2n })).toBe(3)
+    expect(roundMs({ num: -5n, den: 2n })).toBe(-3)
+    expect(roundMs({ num: 7n, den: 3n })).toBe(2)
+    expect(() => lyricBarStartExact(g(0), 1)).toThrow(RangeError)
+    expect(() => lyricBarStartExact(g(90), 1.5)).toThrow(RangeError)
+  })
+
+  // W3C WebVTT §4: hh:mm:ss.ttt; check values from DOMAIN.md §6.
+  it('writes WebVTT timestamps from the rounded exact time', () => {
+    expect(formatClock(lyricBarStartMs(g(90), 2), true)).toBe('00:00:02.667') // 8/3 s
+    expect(formatClock(lyricBarStartMs(g(90), 17), true)).toBe('00:00:42.667') // 128/3 s
+    expect(formatClock(lyricBarStartMs(g(60), 65), true)).toBe('00:04:16.000') // 256 s
+    expect(formatClock(3_600_000 + 61_001, true)).toBe('01:01:01.001')
+  })
+
+  it('writes a margin clock in whole seconds', () => {
+    expect(formatMinutes(42_667)).toBe('0:42')
+    expect(formatMinutes(256_000)).toBe('4:16')
   })
 })

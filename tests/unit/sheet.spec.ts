@@ -1,10 +1,10 @@
 import { WebVTTParser } from 'webvtt-parser'
 import { describe, expect, it } from 'vitest'
-import { lyricBarStartMs, type BarGrid } from '../../shared/utils/bar-time'
+import { lyricBarStartMs, type Grid } from '../../shared/utils/grid'
 import { docFromLines, type LyricLine } from '../../shared/utils/lyric-doc'
 import { adlibSegments, renderText, renderVtt, sheetSections, timeLines, type SheetModel } from '../../shared/utils/sheet'
 
-const grid: BarGrid = { bpm: 90, beatsPerBar: 4, offsetMs: 0, feel: 'normal' }
+const grid: Grid = { bpm: 90, beatsPerBar: 4, offsetMs: 0, feel: 'normal' }
 const lines: LyricLine[] = [
   { id: 'h1', bar: 1, text: 'Lanterns low on the harbour wall' },
   { id: 'h2', bar: 2, text: 'I keep the count (one, two)' },

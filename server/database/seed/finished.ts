@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { docFromLines, type LyricLine, type SectionRef } from '../../../shared/utils/lyric-doc'
 import type { DbOrTx } from '../../utils/db'
-import { drafts, seals, signoffRequests, signoffSigners, songs, splitLines, versions } from '../schema'
+import { drafts, seals, sections, signoffRequests, signoffSigners, songs, splitLines, versions } from '../schema'
 import type { DemoPeople } from './people'
 
 export const FINISHED_SONG_TITLE = 'Kell Street Lanterns'
@@ -37,12 +37,13 @@ const VERSE = [
   'Kell Street lanterns, all of it by hand (by hand)',
 ]
 
-const SECTIONS: SectionRef[] = [
-  { id: 'kell-intro', kind: 'intro', label: 'Intro', startBar: 1, endBar: 4 },
-  { id: 'kell-hook-1', kind: 'hook', label: 'Hook', startBar: 5, endBar: 12 },
-  { id: 'kell-verse-1', kind: 'verse', label: 'Verse 1', startBar: 13, endBar: 28 },
-  { id: 'kell-hook-2', kind: 'hook', label: 'Hook', startBar: 29, endBar: 36 },
-]
+// The song's sections, as rows (the map, the desk and the beat room read them) and in the document.
+const SECTIONS = [
+  { kind: 'intro', label: 'Intro', startBar: 1, endBar: 4 },
+  { kind: 'hook', label: 'Hook', startBar: 5, endBar: 12 },
+  { kind: 'verse', label: 'Verse 1', startBar: 13, endBar: 28 },
+  { kind: 'hook', label: 'Hook', startBar: 29, endBar: 36 },
+] as const
 
 function kellLines(): LyricLine[] {
   const lines: LyricLine[] = [
@@ -75,17 +76,20 @@ export async function seedFinishedSong(tx: DbOrTx, people: DemoPeople) {
     crewId: people.crewId, title: FINISHED_SONG_TITLE, createdBy: people.producer.id,
     bpm: 88, beatsPerBar: 4, offsetMs: 120, createdAt: daysAgo(12), updatedAt: daysAgo(4),
   }).returning()
+  const sectionRows: SectionRef[] = await tx.insert(sections)
+    .values(SECTIONS.map((x, position) => ({ ...x, songId: song!.id, position, createdBy: people.producer.id, createdAt: daysAgo(12) })))
+    .returning({ id: sections.id, kind: sections.kind, label: sections.label, startBar: sections.startBar, endBar: sections.endBar })
   const [draft] = await tx.insert(drafts).values({ songId: song!.id, name: 'Main take', isMain: true, createdBy: people.writer.id, createdAt: daysAgo(12) }).returning()
 
   const first = kellLines()
   const [v1] = await tx.insert(versions).values({
     draftId: draft!.id, number: 1, authorId: people.writer.id, kind: 'save', note: 'Full take: intro, hook, verse, hook',
-    doc: docFromLines(first, SECTIONS), lines: first, createdAt: daysAgo(9),
+    doc: docFromLines(first, sectionRows), lines: first, createdAt: daysAgo(9),
   }).returning()
   const second = first.map(l => (l.id === 'kell-v1-alt' ? { ...l, out: true } : l))
   const [v2] = await tx.insert(versions).values({
     draftId: draft!.id, number: 2, parentId: v1!.id, authorId: people.producer.id, kind: 'save', note: 'Marked 1 line out',
-    doc: docFromLines(second, SECTIONS), lines: second, createdAt: daysAgo(6),
+    doc: docFromLines(second, sectionRows), lines: second, createdAt: daysAgo(6),
   }).returning()
 
   const split = [

@@ -1,0 +1,174 @@
+import { createWriteStream } from 'node:fs'
+import { rm } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { randomUUID } from 'node:crypto'
+import busboy from 'busboy'
+import type { H3Event } from 'h3'
+import { SNIFF_BYTES } from './audio/formats'
+
+/** An upload streamed to a temporary file, its format told by its content. */
+export interface ReceivedFile<F extends string> {
+  tmpPath: string
+  format: F
+  sizeBytes: number
+  originalName: string
+}
+
+/** What an upload route accepts. */
+export interface UploadSpec<F extends string> {
+  limitBytes: number
+  /** The format of a file from its first bytes, or null when it is not accepted. */
+  detect: (head: Uint8Array) => Promise<F | null>
+  /** The accepted formats as a person reads them ("WAV, MP3, FLAC or OGG/Vorbis"). */
+  accepted: string
+  /** What is sent, for messages ("the beat"). */
+  what: string
+  /** Name kept when the client sends none. */
+  fallbackName: string
+}
+
+function refuse(statusCode: number, message: string) {
+  return createError({ statusCode, message })
+}
+
+/**
+ * Streams the multipart field `file` to a temporary file, checking its first bytes with
+ * `spec.detect` (415 when it is not an accepted format, whatever its name says) and its size
+ * against `spec.limitBytes` (413) while it arrives, so a large or wrong upload is refused
+ * without being held in memory. Beats and scratch takes both come in through here.
+ */
+export function receiveUpload<F extends string>(event: H3Event, spec: UploadSpec<F>): Promise<ReceivedFile<F>> {
+  const { limitBytes } = spec
+  const req = event.node.req
+  const type = req.headers['content-type'] ?? ''
+  const limitMb = Math.round(limitBytes / 1024 / 1024 * 10) / 10
+  if (!type.startsWith('multipart/form-data')) {
+    return Promise.reject(refuse(415, `Send ${spec.what} as multipart/form-data with the audio in the field "file" (${spec.accepted}).`))
+  }
+  const declared = Number(req.headers['content-length'] ?? 0)
+  // Multipart framing adds a few hundred bytes; anything past the limit plus that is too big for sure.
+  if (declared > limitBytes + 64 * 1024) {
+    // Answer before reading the body, then linger so the client reads the 413, not a reset.
+    event.node.res.setHeader('Connection', 'close')
+    event.node.res.once('finish', () => lingerThenClose(req))
+    return Promise.reject(refuse(413, `The file is larger than the upload limit of ${limitMb} MB.`))
+  }
+
+  return new Promise<ReceivedFile<F>>((resolve, reject) => {
+    let settled = false
+    let bb: busboy.Busboy
+    try {
+      bb = busboy({ headers: req.headers, limits: { files: 1, fileSize: limitBytes, fields: 10, parts: 12 } })
+    }
+    catch {
+      reject(refuse(400, 'The multipart body could not be read: check its boundary.'))
+      return
+    }
+    const tmpPath = join(tmpdir(), `barsmith-upload-${randomUUID()}`)
+    let out: ReturnType<typeof createWriteStream> | undefined
+    let sawFile = false
+
+    const fail = (error: unknown) => {
+      if (settled) return
+      settled = true
+      req.unpipe(bb)
+      out?.destroy()
+      void rm(tmpPath, { force: true })
+      // The rest of the body is not stored. After the reply, a bounded "lingering close" (as
+      // web servers do) discards a little more so the client reads the reply before the
+      // socket closes, instead of a reset; then the connection is dropped.
+      event.node.res.setHeader('Connection', 'close')
+      event.node.res.once('finish', () => lingerThenClose(req))
+      reject(error)
+    }
+
+    bb.on('file', (name, stream, info) => {
+      if (name !== 'file' || sawFile) {
+        stream.resume()
+        return
+      }
+      sawFile = true
+      out = createWriteStream(tmpPath)
+      out.on('error', fail)
+      let size = 0
+      let head: Buffer[] = []
+      let headBytes = 0
+      let format: F | null = null
+      let checking: Promise<void> | null = null
+      // The stream pauses for the format check and for the disk to catch up; it resumes when neither waits.
+      let waitCheck = false
+      let waitDrain = false
+      const resume = () => {
+        if (!settled && !waitCheck && !waitDrain) stream.resume()
+      }
+
+      const check = async () => {
+        format = await spec.detect(Buffer.concat(head))
+        head = []
+        if (!format) fail(refuse(415, `That file is not audio Barsmith can read. Upload ${spec.accepted}; the file's content decides, not its name.`))
+      }
+
+      stream.on('data', (chunk: Buffer) => {
+        if (settled) return
+        size += chunk.length
+        if (headBytes < SNIFF_BYTES) {
+          head.push(chunk)
+          headBytes += chunk.length
+          if (headBytes >= SNIFF_BYTES) {
+            waitCheck = true
+            stream.pause()
+            checking = check().then(() => {
+              waitCheck = false
+              resume()
+            })
+          }
+        }
+        if (!out!.write(chunk)) {
+          waitDrain = true
+          stream.pause()
+          out!.once('drain', () => {
+            waitDrain = false
+            resume()
+          })
+        }
+      })
+      stream.on('limit', () => fail(refuse(413, `The file is larger than the upload limit of ${limitMb} MB.`)))
+      stream.on('end', async () => {
+        if (settled) return
+        if (!format) await (checking ?? check())
+        if (settled) return
+        if (size === 0) return fail(refuse(400, 'The file is empty.'))
+        out!.end(() => {
+          if (settled) return
+          settled = true
+          resolve({ tmpPath, format: format!, sizeBytes: size, originalName: (info.filename || spec.fallbackName).slice(0, 200) })
+        })
+      })
+    })
+    bb.on('error', () => fail(refuse(400, 'The multipart body could not be read.')))
+    bb.on('close', () => {
+      if (!sawFile) fail(refuse(400, 'Attach the audio in the multipart field "file".'))
+    })
+    req.on('aborted', () => fail(refuse(400, 'The upload was interrupted.')))
+    req.pipe(bb)
+  })
+}
+
+const LINGER_BYTES = 256 * 1024 * 1024
+const LINGER_MS = 2000
+
+function lingerThenClose(req: H3Event['node']['req']) {
+  let discarded = 0
+  const done = () => {
+    clearTimeout(timer)
+    req.destroy()
+  }
+  const timer = setTimeout(done, LINGER_MS)
+  req.on('data', (chunk: Buffer) => {
+    discarded += chunk.length
+    if (discarded > LINGER_BYTES) done()
+  })
+  req.on('end', done)
+  req.resume()
+}
