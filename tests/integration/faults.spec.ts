@@ -251,7 +251,7 @@ describe('the server killed during an upload', () => {
 })
 
 describe('the server killed during a beat analysis', () => {
-  it('runs the abandoned job again after the restart: the beat ends ready, not stuck in analysing', async () => {
+  it('runs the abandoned job again after the restart and queues a beat stored without a job: both end ready, none stuck', async () => {
     const producer = await demo('producer')
     const songId = await demoSong(producer)
     // A long beat (invented: 160 bars at 90 BPM, about 7 minutes), so the analysis is still running when killed.
@@ -265,6 +265,10 @@ describe('the server killed during a beat analysis', () => {
     await killServer()
     const [killed] = await q('SELECT status FROM beats WHERE id = $1', [beatId])
     expect(killed.status).toBe('analysing')
+    // A beat stored just before a kill that came before its job was queued: a row without a job.
+    const [orphan] = await q(`INSERT INTO beats (song_id, bounce, uploaded_by, original_name, format, size_bytes, storage_key, status, created_at)
+      SELECT song_id, (SELECT max(bounce) + 1 FROM beats WHERE song_id = $2), uploaded_by, 'orphan.wav', format, size_bytes, storage_key, 'queued', now() - interval '2 minutes'
+      FROM beats WHERE id = $1 RETURNING id`, [beatId, songId])
 
     await startServer('c')
     const { beat, seen } = await waitForBeat(await demo('producer'), songId, beatId, 90_000)
@@ -275,5 +279,8 @@ describe('the server killed during a beat analysis', () => {
     const [job] = await q(`SELECT state, retry_count FROM pgboss.job WHERE data->>'beatId' = $1 ORDER BY created_on DESC LIMIT 1`, [beatId])
     expect(job.state).toBe('completed')
     expect(job.retry_count).toBeGreaterThanOrEqual(1)
+    // The row without a job was queued at the start and analysed too.
+    const { beat: found } = await waitForBeat(await demo('producer'), songId, orphan.id, 90_000)
+    expect(found.status, found.failureReason ?? '').toBe('ready')
   }, 180_000)
 })
