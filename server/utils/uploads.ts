@@ -1,6 +1,6 @@
 import { createWriteStream, mkdirSync } from 'node:fs'
 import { readdir, rm, stat } from 'node:fs/promises'
-import { tmpdir } from 'node:os'
+import { hostname, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import busboy from 'busboy'
@@ -38,6 +38,7 @@ export function incomingDir(): string {
   return env.STORAGE_DRIVER === 'fs' ? join(env.STORAGE_DIR, '.incoming') : join(tmpdir(), 'barsmith-incoming')
 }
 
+const HOST_TAG = hostname().replace(/[^\w]/g, '').slice(0, 40) || 'host'
 let incomingReady = false
 function newIncomingPath(): string {
   const dir = incomingDir()
@@ -45,8 +46,9 @@ function newIncomingPath(): string {
     mkdirSync(dir, { recursive: true })
     incomingReady = true
   }
-  // The receiving process's id is in the name, so after a crash the next start can tell its leftovers.
-  return join(dir, `${process.pid}-${randomUUID()}.part`)
+  // The receiving process's id (and host, for a shared volume) is in the name, so after a crash
+  // the next start can tell its leftovers.
+  return join(dir, `${process.pid}-${HOST_TAG}-${randomUUID()}.part`)
 }
 
 function processAlive(pid: number): boolean {
@@ -62,7 +64,7 @@ function processAlive(pid: number): boolean {
 
 /**
  * Removes half-received uploads left by a process that died while receiving (killed, power
- * lost): files whose process is gone, and any older than a day whatever their process.
+ * lost): this host's files whose process is gone, and any older than a day.
  * Returns how many were removed.
  */
 export async function sweepIncoming(): Promise<number> {
@@ -70,10 +72,13 @@ export async function sweepIncoming(): Promise<number> {
   const names = await readdir(dir).catch(() => [] as string[])
   let removed = 0
   for (const name of names) {
-    const pid = Number(/^(\d+)-/.exec(name)?.[1])
+    const [, pidText, host] = /^(\d+)-(\w+)-/.exec(name) ?? []
+    const pid = Number(pidText)
     const path = join(dir, name)
     const old = await stat(path).then(s => Date.now() - s.mtimeMs > 86_400_000, () => false)
-    if (!old && Number.isInteger(pid) && pid > 0 && processAlive(pid)) continue
+    // Another host's upload may still be arriving: only age tells.
+    const gone = host === HOST_TAG && pid > 0 && !processAlive(pid)
+    if (!old && !gone) continue
     await rm(path, { force: true, recursive: true })
     removed++
   }
