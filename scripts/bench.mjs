@@ -34,8 +34,9 @@ for (const file of files) {
   const out = resolve(root, 'bench/out', `${name}.json`)
   console.log(`\n=== ${file} ===`)
   const started = Date.now()
+  const loadAtStart = loadavg()[0]
   const exitCode = await new Promise(r => spawn(process.execPath, ['--expose-gc', resolve(root, 'bench', file)], { cwd: root, stdio: 'inherit' }).on('exit', code => r(code ?? 1)))
-  const result = { name, file, exitCode, seconds: (Date.now() - started) / 1000, json: null }
+  const result = { name, file, exitCode, seconds: (Date.now() - started) / 1000, loadAtStart, json: null }
   // Only this run's output counts: a JSON left by an earlier run is not reported as current.
   if (existsSync(out) && statSync(out).mtimeMs >= started) {
     try {

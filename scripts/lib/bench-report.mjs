@@ -123,7 +123,7 @@ export function reportMarkdown({ machine, results }) {
   }
   for (const r of results) {
     out.push(`## ${r.name} (\`bench/${r.file}\`)`, '')
-    out.push(`Ran ${fmt(r.seconds)} s, exit code ${r.exitCode}.`, '')
+    out.push(`Ran ${fmt(r.seconds)} s, exit code ${r.exitCode}${r.loadAtStart === undefined ? '' : `, 1-minute load average ${Number(r.loadAtStart).toFixed(2)} when it started (${machine.cores} cores)`}.`, '')
     if (!r.json) {
       out.push(`No figures: ${r.error ?? 'the benchmark wrote no bench/out JSON in this run'}.`, '')
       continue
