@@ -145,6 +145,10 @@ describe('PostgreSQL stopped and started again while the server runs', () => {
       await sleep(300)
     }
     expect(seen.length).toBe(15)
+    // The song page (rendered on the server) still renders, with the same message where the song would be.
+    const page = await owner.get(`/songs/${songId}`, { accept: 'text/html' })
+    expect(page.status).toBeLessThan(500)
+    expect(page.text).toContain('The database is not reachable right now.')
     expect(server!.exitCode).toBeNull()
 
     await startCluster(pgDir)
