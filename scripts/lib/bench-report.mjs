@@ -123,7 +123,8 @@ export function reportMarkdown({ machine, results }) {
   }
   for (const r of results) {
     out.push(`## ${r.name} (\`bench/${r.file}\`)`, '')
-    out.push(`Ran ${fmt(r.seconds)} s, exit code ${r.exitCode}${r.loadAtStart === undefined ? '' : `, 1-minute load average ${Number(r.loadAtStart).toFixed(2)} when it started (${machine.cores} cores)`}.`, '')
+    const busy = r.loadAtStart !== undefined && r.loadAtStart >= machine.cores * 0.75
+    out.push(`Ran ${fmt(r.seconds)} s, exit code ${r.exitCode}${r.loadAtStart === undefined ? '' : `, 1-minute load average ${Number(r.loadAtStart).toFixed(2)} when it started (${machine.cores} cores)`}.${busy ? ' The cores were already busy with other work: its times are inflated by waiting for a core.' : ''}`, '')
     if (!r.json) {
       out.push(`No figures: ${r.error ?? 'the benchmark wrote no bench/out JSON in this run'}.`, '')
       continue

@@ -42,3 +42,11 @@ describe('the benchmark report', () => {
     expect(md).toContain('No figures: it exited with code 1')
   })
 })
+
+describe('the benchmark report on a busy machine', () => {
+  it('says when a benchmark started with the cores already busy', () => {
+    const result = { name: 'vocal-map', file: 'vocal-map.bench.mjs', exitCode: 0, seconds: 5, json: { figures: { mapP95Ms: 10 }, targets: { mapP95Ms: 300 } } }
+    expect(reportMarkdown({ machine, results: [{ ...result, loadAtStart: 1.8 }] })).toContain('already busy')
+    expect(reportMarkdown({ machine, results: [{ ...result, loadAtStart: 0.4 }] })).not.toContain('already busy')
+  })
+})
