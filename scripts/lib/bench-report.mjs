@@ -69,7 +69,7 @@ const SUMMARIES = {
   load(j) {
     const rows = (j.runs ?? []).map(r => row(
       `${r.scenario}, ${r.connections} connections (${r.requests} requests in ≤ ${r.durationS} s)`,
-      `${fmt(r.rps)} req/s; p50 ${fmt(r.p50Ms)} / p95 ${fmt(r.p95Ms)} / p99 ${fmt(r.p99Ms)} ms; ${r.errors} errors`,
+      `${fmt(r.rps)} req/s; p50 ${fmt(r.p50Ms)} / p95 ${fmt(r.p95Ms)} / p99 ${fmt(r.p99Ms)} ms; ${r.errors} errors; RSS ${fmt(r.rssBeforeMb)} → ${fmt(r.rssAfterMb)} MB; load ${fmt(r.loadAvgAfter, 2)}`,
     ))
     for (const r of j.report ?? []) rows.push(row(r.what, r.value, r.unit ?? '', r.target ? `${r.target} (Barsmith's own)` : null, r.met ?? null))
     if (j.rss) rows.push(row('server RSS before → after all load runs', `${fmt(j.rss.startMb)} → ${fmt(j.rss.endMb)}`, 'MB'))
