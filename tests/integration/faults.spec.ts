@@ -145,14 +145,17 @@ describe('PostgreSQL stopped and started again while the server runs', () => {
       await sleep(300)
     }
     expect(seen.length).toBe(15)
-    // The song page (rendered on the server) still renders, with the same message where the song would be.
+    // The song page (rendered on the server) still renders, with the same message where the song
+    // would be and the same status as the API.
     const page = await owner.get(`/songs/${songId}`, { accept: 'text/html' })
-    expect(page.status).toBeLessThan(500)
+    expect(page.status).toBe(503)
+    expect(page.headers.get('retry-after')).toBe('5')
     expect(page.text).toContain('The database is not reachable right now.')
     expect(server!.exitCode).toBeNull()
 
     await startCluster(pgDir)
     await until('the API serves again', async () => (await owner.get('/api/crews')).status === 200, 30_000)
+    expect((await owner.get(`/songs/${songId}`, { accept: 'text/html' })).status).toBe(200)
     const made = await owner.post('/api/crews', { name: 'Made after the outage' })
     expect(made.status, made.text).toBe(201)
     expect((await owner.get('/api/crews')).body.map((c: { name: string }) => c.name)).toContain('Made after the outage')
