@@ -17,4 +17,9 @@ export default defineNitroPlugin(() => {
       })
     : fsDriver({ base: env.STORAGE_DIR })
   useStorage().mount('files', driver)
+  // Uploads half-received when a process died are removed; they were never stored under a key.
+  void sweepIncoming().then(
+    n => n && console.info(`[uploads] removed ${n} unfinished upload(s) left by a stopped process`),
+    error => console.warn('[uploads] could not sweep unfinished uploads:', (error as Error).message),
+  )
 })

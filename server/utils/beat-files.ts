@@ -1,6 +1,6 @@
 import { createReadStream } from 'node:fs'
-import { readFile, rm, stat } from 'node:fs/promises'
-import { join } from 'node:path'
+import { copyFile, mkdir, readFile, rename, rm, stat } from 'node:fs/promises'
+import { dirname, join } from 'node:path'
 import { Readable } from 'node:stream'
 import { AwsClient } from 'aws4fetch'
 import type { H3Event } from 'h3'
@@ -33,11 +33,27 @@ function s3Client() {
 }
 const s3Url = (key: string) => `${useEnv().S3_ENDPOINT!.replace(/\/$/, '')}/${useEnv().S3_BUCKET}/${key}`
 
-/** Moves a received upload into the `files` mount (streamed on the file system). */
+/**
+ * Moves a received upload into the `files` mount. On the file system it is one rename from
+ * the incoming folder (same volume), so a key never holds a half-written file, even when
+ * the process dies mid-way; across volumes it is copied beside the key and then renamed.
+ */
 export async function storeUpload(key: string, tmpPath: string): Promise<void> {
-  const storage = useStorage('files')
-  if (useEnv().STORAGE_DRIVER === 'fs') await storage.setItemRaw(key, createReadStream(tmpPath))
-  else await storage.setItemRaw(key, await readFile(tmpPath))
+  if (useEnv().STORAGE_DRIVER !== 'fs') {
+    await useStorage('files').setItemRaw(key, await readFile(tmpPath))
+    return
+  }
+  const target = fsPath(key)
+  await mkdir(dirname(target), { recursive: true })
+  try {
+    await rename(tmpPath, target)
+  }
+  catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EXDEV') throw error
+    const part = `${target}.part`
+    await copyFile(tmpPath, part)
+    await rename(part, target)
+  }
 }
 
 /** The stored bytes of `key`, or null. */

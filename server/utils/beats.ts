@@ -1,4 +1,4 @@
-import { and, desc, eq, sql } from 'drizzle-orm'
+import { and, desc, eq, isNull, lt, sql } from 'drizzle-orm'
 import { analyseFile } from './audio/analyse'
 import { AudioDecodeError } from './audio/decode'
 import { AUDIO_FORMATS } from './audio/formats'
@@ -119,6 +119,18 @@ export async function runBeatAnalysis(beatId: string): Promise<void> {
 export async function failStuckBeat(beatId: string): Promise<void> {
   await useDb().update(beats).set({ status: 'failed', failureReason: 'The analysis stopped several times before finishing. Upload the beat again; if it keeps happening, try a WAV export.' })
     .where(and(eq(beats.id, beatId), sql`${beats.status} IN ('queued', 'analysing')`))
+}
+
+/**
+ * Queues beats that were stored but never reached the queue (the process died between the
+ * two steps, or the queue was unreachable then). Runs in the worker at start and now and then;
+ * the queue's singleton key keeps a beat from being queued twice.
+ */
+export async function requeueOrphanBeats(): Promise<number> {
+  const orphans = await useDb().select({ id: beats.id }).from(beats)
+    .where(and(eq(beats.status, 'queued'), isNull(beats.jobId), lt(beats.createdAt, sql`now() - interval '30 seconds'`)))
+  for (const { id } of orphans) await queueBeatAnalysis(id)
+  return orphans.length
 }
 
 /** The next bounce number of a song. */

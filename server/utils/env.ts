@@ -20,6 +20,10 @@ const EnvSchema = z.object({
   BARSMITH_SEED_DEMO: z.enum(['0', '1']).default('0'),
   DEMO_PASSWORD: z.string().min(10).default('barsmith-demo'),
   BARSMITH_WORKERS: z.enum(['0', '1']).default('1'),
+  // How long a beat analysis may run before its job counts as abandoned (its process died) and runs again,
+  // and how often the queue looks for such jobs.
+  BEAT_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(5).max(3600).default(180),
+  JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
   // Live updates and alt mail
   LIVE_HEARTBEAT_MS: z.coerce.number().int().min(200).max(120_000).default(15_000),
   ALT_MAIL_WINDOW_MS: z.coerce.number().int().min(100).max(86_400_000).default(300_000),

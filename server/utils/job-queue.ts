@@ -14,12 +14,12 @@ export function useJobQueue(): Promise<PgBoss> {
   boss ??= (async () => {
     const env = useEnv()
     const workers = env.BARSMITH_WORKERS === '1'
-    const instance = new PgBoss({ connectionString: env.DATABASE_URL, schema: 'pgboss', max: 3, supervise: workers, schedule: false, application_name: 'barsmith-jobs' })
+    const instance = new PgBoss({ connectionString: env.DATABASE_URL, schema: 'pgboss', max: 3, supervise: workers, maintenanceIntervalSeconds: env.JOB_MAINTENANCE_SECONDS, schedule: false, application_name: 'barsmith-jobs' })
     instance.on('error', error => console.warn('[jobs]', error.message))
     await instance.start()
     await instance.createQueue(BEAT_ANALYSIS_DEAD, { name: BEAT_ANALYSIS_DEAD })
     // A job whose process died stays active until it expires, then runs again: nothing stays stuck.
-    await instance.createQueue(BEAT_ANALYSIS_QUEUE, { name: BEAT_ANALYSIS_QUEUE, retryLimit: 2, retryDelay: 5, expireInSeconds: 180, deadLetter: BEAT_ANALYSIS_DEAD })
+    await instance.createQueue(BEAT_ANALYSIS_QUEUE, { name: BEAT_ANALYSIS_QUEUE, retryLimit: 2, retryDelay: 5, expireInSeconds: env.BEAT_JOB_EXPIRE_SECONDS, deadLetter: BEAT_ANALYSIS_DEAD })
     return instance
   })().catch((error) => {
     boss = undefined

@@ -1,6 +1,6 @@
-import { createWriteStream } from 'node:fs'
-import { rm } from 'node:fs/promises'
-import { tmpdir } from 'node:os'
+import { createWriteStream, mkdirSync } from 'node:fs'
+import { readdir, rm, stat } from 'node:fs/promises'
+import { hostname, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import busboy from 'busboy'
@@ -26,6 +26,63 @@ export interface UploadSpec<F extends string> {
   what: string
   /** Name kept when the client sends none. */
   fallbackName: string
+}
+
+/**
+ * Where uploads arrive before they are stored: inside the storage root on the file system
+ * (so storing is one rename, and a half-received file never sits under a key), the OS
+ * temporary directory otherwise. Keys are never under this folder, so nothing here is served.
+ */
+export function incomingDir(): string {
+  const env = useEnv()
+  return env.STORAGE_DRIVER === 'fs' ? join(env.STORAGE_DIR, '.incoming') : join(tmpdir(), 'barsmith-incoming')
+}
+
+const HOST_TAG = hostname().replace(/[^\w]/g, '').slice(0, 40) || 'host'
+let incomingReady = false
+function newIncomingPath(): string {
+  const dir = incomingDir()
+  if (!incomingReady) {
+    mkdirSync(dir, { recursive: true })
+    incomingReady = true
+  }
+  // The receiving process's id (and host, for a shared volume) is in the name, so after a crash
+  // the next start can tell its leftovers.
+  return join(dir, `${process.pid}-${HOST_TAG}-${randomUUID()}.part`)
+}
+
+function processAlive(pid: number): boolean {
+  if (pid === process.pid) return true
+  try {
+    process.kill(pid, 0)
+    return true
+  }
+  catch (error) {
+    return (error as NodeJS.ErrnoException).code === 'EPERM'
+  }
+}
+
+/**
+ * Removes half-received uploads left by a process that died while receiving (killed, power
+ * lost): this host's files whose process is gone, and any older than a day.
+ * Returns how many were removed.
+ */
+export async function sweepIncoming(): Promise<number> {
+  const dir = incomingDir()
+  const names = await readdir(dir).catch(() => [] as string[])
+  let removed = 0
+  for (const name of names) {
+    const [, pidText, host] = /^(\d+)-(\w+)-/.exec(name) ?? []
+    const pid = Number(pidText)
+    const path = join(dir, name)
+    const old = await stat(path).then(s => Date.now() - s.mtimeMs > 86_400_000, () => false)
+    // Another host's upload may still be arriving: only age tells.
+    const gone = host === HOST_TAG && pid > 0 && !processAlive(pid)
+    if (!old && !gone) continue
+    await rm(path, { force: true, recursive: true })
+    removed++
+  }
+  return removed
 }
 
 function refuse(statusCode: number, message: string) {
@@ -65,7 +122,7 @@ export function receiveUpload<F extends string>(event: H3Event, spec: UploadSpec
       reject(refuse(400, 'The multipart body could not be read: check its boundary.'))
       return
     }
-    const tmpPath = join(tmpdir(), `barsmith-upload-${randomUUID()}`)
+    const tmpPath = newIncomingPath()
     let out: ReturnType<typeof createWriteStream> | undefined
     let sawFile = false
 
