@@ -8,8 +8,10 @@ export interface CadenceSchedule {
   endMs: number
   loop: boolean
   /** Every scheduled tick: the slot's song time and the context time it was started at. */
-  ticks: Array<{ lineId: string, index: number, slotMs: number, pass: number, at: number }>
+  ticks: Array<{ lineId: string, index: number, slotMs: number, pass: number, at: number, scheduledAt: number }>
   beat: boolean
+  /** The context's state when the first pass was scheduled (running means the clock moves). */
+  state: AudioContextState
 }
 
 declare global {
@@ -70,7 +72,7 @@ export function useCadencePlayer() {
     const c = ctx
     const length = (options.endMs - options.startMs) / 1000
     const contextStart = c.currentTime + LEAD_S
-    const schedule: CadenceSchedule = { contextStart, startMs: options.startMs, endMs: options.endMs, loop: options.loop, ticks: [], beat: !!beatBuffer }
+    const schedule: CadenceSchedule = { contextStart, startMs: options.startMs, endMs: options.endMs, loop: options.loop, ticks: [], beat: !!beatBuffer, state: c.state }
     const passStart = (pass: number) => contextStart + pass * length
     const schedulePass = (pass: number) => {
       const at0 = passStart(pass)
@@ -92,7 +94,7 @@ export function useCadencePlayer() {
         osc.start(at)
         osc.stop(at + 0.06)
         nodes.push(osc)
-        schedule.ticks.push({ lineId: t.lineId, index: t.index, slotMs: t.slotMs, pass, at })
+        schedule.ticks.push({ lineId: t.lineId, index: t.index, slotMs: t.slotMs, pass, at, scheduledAt: c.currentTime })
       }
       window.__barsmithCadence = Object.freeze({ ...schedule, ticks: schedule.ticks.map(x => Object.freeze({ ...x })) })
     }
