@@ -37,3 +37,14 @@ export const CadenceMapSchema = z.record(z.string().regex(LINE_ID_PATTERN, 'A li
 export type CadenceMapInput = z.infer<typeof CadenceMapSchema>
 /** As stored on a version: only placements, only for lines of that version. */
 export type StoredCadence = Record<string, Placement>
+
+/** `?cadence=5-12` (or `?cadence=7`): the lyric bars whose cadence the sheet prints under their lines. */
+export const SheetCadenceQuerySchema = z.object({
+  cadence: z.string().trim().regex(/^\d{1,5}(-\d{1,5})?$/, 'cadence is a bar or a range of bars, e.g. ?cadence=5-12.')
+    .transform((s) => {
+      const [from, to = from] = s.split('-').map(Number) as [number, number?]
+      return { from: from!, to: to! }
+    })
+    .refine(r => r.from >= 1 && r.to >= r.from, 'cadence is a range from bar 1 up, first bar first (e.g. 5-12).')
+    .optional(),
+})

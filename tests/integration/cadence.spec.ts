@@ -87,4 +87,28 @@ describe('cadence with versions', () => {
     }
     expect((await crew.as.outsider.get(`/api/versions/${v1}`)).status).toBe(404)
   })
+
+  it('prints the chosen bars\' cadence as a row of slots under the line on the sheet, the text and the PDF', async () => {
+    const { draftId, v1 } = await draftWithVersion()
+    // "night bus home": three one-syllable words (CMU Pronouncing Dictionary: N AY1 T, B AH1 S, HH OW1 M).
+    const v2 = await crew.as.writer.post(`/api/drafts/${draftId}/versions`, { baseVersionId: v1, lines, cadence: { a: { sub: '16', slots: [0, 2, 8], holds: [1, 0, 3], breaths: [14] } } })
+    const model = (await crew.as.listener.get(`/api/versions/${v2.body.id}/sheet?cadence=1`)).body
+    const printed = model.sections.flatMap((s: any) => s.lines)
+    expect(printed.find((l: any) => l.id === 'a').cadence).toBe('X-X.|....|X---|..v.')
+    expect(printed.find((l: any) => l.id === 'b').cadence).toBeUndefined()
+    const txt = (await crew.as.listener.get(`/api/versions/${v2.body.id}/sheet.txt?cadence=1-2`)).text
+    expect(txt).toContain('X-X.|....|X---|..v.')
+    // Line b has no stored placement: the automatic one; "window fogged with my name" has 6 syllables (CMU Pronouncing Dictionary).
+    const rowB = txt.split('\n').find(r => /^\s+[xX.|v-]+$/.test(r) && !r.includes('X-X.'))!
+    expect(rowB.trim().replace(/[^xX]/g, '')).toHaveLength(6)
+    expect((await crew.as.listener.get(`/api/versions/${v2.body.id}/sheet.txt`)).text).not.toContain('X-X.')
+    const pdf = await crew.as.listener.get(`/api/versions/${v2.body.id}/sheet.pdf?cadence=1-2`)
+    expect(pdf.status).toBe(200)
+    expect(pdf.headers.get('content-type')).toBe('application/pdf')
+    for (const bad of ['x', '3-1', '0']) {
+      const res = await crew.as.listener.get(`/api/versions/${v2.body.id}/sheet?cadence=${bad}`)
+      expect(res.status, bad).toBe(400)
+      expect(res.body.message).toMatch(/cadence/)
+    }
+  })
 })
