@@ -41,17 +41,12 @@ describe('cadence room in Chromium', () => {
     expect([hook.startBar, hook.endBar]).toEqual([5, 12])
 
     const { page, external, pageErrors } = await newPage(browser, { width: 1400, height: 900 })
-    page.on('console', m => console.log('console', m.text()))
     await signInDemo(page, 'writer')
     const url = `/songs/${song.id}/cadence?section=${hook.id}&draft=${draftId}`
     await page.goto(url)
     await hydrated(page)
     const rows = page.locator('[data-testid^="cadence-line-"]')
-    await rows.nth(7).waitFor().catch(async (e) => {
-      await screenshot(page, 'cadence-debug')
-      console.log(pageErrors, await page.getByTestId('cadence-room').innerText())
-      throw e
-    })
+    await rows.nth(7).waitFor()
     expect(await rows.count()).toBe(8)
     const bar5 = page.locator('[data-testid^="cadence-line-"][data-bar="5"]')
     const before = await slotsOf(bar5)
@@ -71,6 +66,16 @@ describe('cadence room in Chromium', () => {
     await page.waitForFunction(([sel, i, slot]) => document.querySelector(`${sel} [data-slot="${slot}"][data-syllable="${i}"]`) !== null, [`[data-testid^="cadence-line-"][data-bar="5"]`, k, moved[k]] as const)
     expect(await slotsOf(bar5)).toEqual(moved)
     await bar5.getByTestId('cadence-dirty').waitFor()
+
+    // Drag: bar 6's last syllable onto the bar's last slot.
+    const bar6 = page.locator('[data-testid^="cadence-line-"][data-bar="6"]')
+    const six = await slotsOf(bar6)
+    const last = six.length - 1
+    if (six[last] !== 15) {
+      await bar6.getByTestId(`syllable-${last}`).dragTo(bar6.locator('[data-slot="15"]'))
+      await page.waitForFunction(sel => document.querySelector(`${sel} [data-slot="15"][data-syllable]`) !== null, '[data-testid^="cadence-line-"][data-bar="6"]')
+    }
+    expect(await slotsOf(bar6)).toEqual([...six.slice(0, last), 15])
 
     // Play the hook: every tick sits at bar start + slot × slot length on the audio clock.
     await page.getByTestId('cadence-play').click()
@@ -124,6 +129,15 @@ describe('cadence room in Chromium', () => {
     await rows.nth(7).waitFor()
     expect(await slotsOf(bar5)).toEqual(moved)
     await screenshot(page, 'cadence-after-reload')
+
+    // The sheet of that version prints the hook's cadence under its lines.
+    await page.goto(`/songs/${song.id}/sheet?version=${next.body.id}&cadence=5-12`)
+    await hydrated(page)
+    await page.getByTestId('sheet-cadence').nth(7).waitFor()
+    const printed = page.locator('[data-testid="sheet-line"][data-bar="5"] [data-testid="sheet-cadence"]')
+    const row = (await printed.textContent())!.replace(/\|/g, '')
+    expect(moved.every(s => /[xX]/.test(row[s]!))).toBe(true)
+    await screenshot(page, 'cadence-on-sheet')
 
     expect(pageErrors).toEqual([])
     expect(external).toEqual([])
