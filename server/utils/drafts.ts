@@ -85,12 +85,10 @@ export function cadenceFor(lines: readonly LyricLine[], base: { lines: readonly 
   for (const line of lines) {
     const old = before.get(line.id)
     const kept = base?.cadence[line.id]
-    if (old && kept && old.text === line.text && (old.bars ?? 1) === (line.bars ?? 1)) out[line.id] = kept
-    if (sent && line.id in sent) {
-      const p = sent[line.id]
-      if (p) out[line.id] = p
-      else delete out[line.id]
-    }
+    const placement = sent && line.id in sent
+      ? sent[line.id]
+      : (old && kept && old.text === line.text && (old.bars ?? 1) === (line.bars ?? 1) ? kept : null)
+    if (placement) out[line.id] = placement
   }
   return out
 }

@@ -96,7 +96,6 @@ describe('editing and reading', () => {
   })
 })
 
-
 describe('ticks, print rows and stored placements', () => {
   it('ticks each placed syllable at bar start + slot × slot length, in song order', () => {
     const grid = { bpm: 90, beatsPerBar: 4, offsetMs: 700 }

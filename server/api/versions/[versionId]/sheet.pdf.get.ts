@@ -1,4 +1,5 @@
 import { SheetCadenceQuerySchema } from '../../../../shared/schemas/cadence'
+
 export default defineEventHandler(async (event) => {
   const { version } = await requireVersionAccess(event, 'song.view')
   const { cadence } = validQuery(event, SheetCadenceQuerySchema)
