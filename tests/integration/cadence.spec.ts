@@ -111,4 +111,20 @@ describe('cadence with versions', () => {
       expect(res.body.message).toMatch(/cadence/)
     }
   })
+
+  it('taking an alt keeps the line\'s placement when the alt sings as many syllables, else goes back to automatic', async () => {
+    const { draftId, v1 } = await draftWithVersion()
+    const v2 = await crew.as.writer.post(`/api/drafts/${draftId}/versions`, { baseVersionId: v1, lines, cadence: { a: placement } })
+    // "late bus home" and "night bus home": three syllables each; "night bus going home" has four (CMU Pronouncing Dictionary).
+    const same = await crew.as.cowriter.post(`/api/drafts/${draftId}/alts`, { lineId: 'a', text: 'late bus home' })
+    const took = await crew.as.writer.post(`/api/alts/${same.body.id}/take`)
+    expect(took.status).toBe(201)
+    const afterSame = (await crew.as.listener.get(`/api/versions/${took.body.version.id}`)).body
+    expect(afterSame.lines[0].text).toBe('late bus home')
+    expect(afterSame.cadence).toEqual({ a: placement })
+    const longer = await crew.as.cowriter.post(`/api/drafts/${draftId}/alts`, { lineId: 'a', text: 'night bus going home' })
+    const took2 = await crew.as.writer.post(`/api/alts/${longer.body.id}/take`)
+    expect((await crew.as.listener.get(`/api/versions/${took2.body.version.id}`)).body.cadence).toEqual({})
+    expect((await crew.as.listener.get(`/api/versions/${v2.body.id}`)).body.cadence).toEqual({ a: placement })
+  })
 })
