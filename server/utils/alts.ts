@@ -6,6 +6,8 @@ import { replaceLineText } from '../../shared/utils/doc-edit'
 import { docFromLines, type LyricLine } from '../../shared/utils/lyric-doc'
 import { altComments, alts, altVotes, drafts, songs, users, versions, type Alt, type Draft, type Song } from '../database/schema'
 import type { DbOrTx } from './db'
+import type { CadenceMapInput, StoredCadence } from '../../shared/schemas/cadence'
+import { analyseDraft } from './prosody/analyse'
 import type { SignedInUser } from './access'
 import { notifyAltDecided, notifyLineWriter } from './notifications'
 import { altFigures } from './alt-figures'
@@ -103,6 +105,18 @@ export async function proposeAlt(db: DbOrTx, input: { draft: Draft, song: Song, 
 }
 
 /**
+ * The line's placement kept for the alt's words when they sing the same number of syllables
+ * (each syllable keeps its slot); otherwise the line goes back to the automatic placement.
+ */
+async function altCadence(cadence: StoredCadence, line: LyricLine, text: string, crewId: string): Promise<CadenceMapInput | undefined> {
+  const placement = cadence[line.id]
+  if (!placement) return undefined
+  const lexicon = await loadLexicon(crewId)
+  const [before, after] = analyseDraft({ lines: [{ id: 'old', bar: line.bar, text: line.text }, { id: 'new', bar: line.bar, text }] }, lexicon).lines
+  return before!.syllables === after!.syllables && after!.syllables === placement.slots.length ? { [line.id]: placement } : undefined
+}
+
+/**
  * Takes an open alt: a new version on the current head with that one line's text replaced
  * (kind 'alt'), the alt marked taken. 409 when the line is gone or the alt already decided.
  */
@@ -121,7 +135,7 @@ export async function takeAlt(db: DbOrTx, input: { alt: Alt, song: Song, user: S
     const doc = replaceLineText(head.doc, alt.lineId, alt.text) ?? docFromLines(lines)
     const [author] = alt.authorId ? await tx.select({ name: users.name }).from(users).where(eq(users.id, alt.authorId)) : []
     const saved = await saveVersion(tx, {
-      draft, authorId: input.user.id, baseVersionId: head.id, lines, doc, kind: 'alt',
+      draft, authorId: input.user.id, baseVersionId: head.id, lines, doc, kind: 'alt', cadence: await altCadence(head.cadence, line, alt.text, input.song.crewId),
       note: `Took ${author ? `${author.name}'s` : 'an'} alt for bar ${line.bar}`,
     })
     // The draft row is locked, so the head cannot have moved.

@@ -2,6 +2,7 @@ import { and, desc, eq, sql } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import { z } from 'zod'
 import type { Action } from '../../shared/utils/permissions'
+import type { CadenceMapInput, StoredCadence } from '../../shared/schemas/cadence'
 import { LIMITS } from '../../shared/schemas/drafts'
 import { LyricDocSchema } from '../../shared/schemas/lyric-doc'
 import { docFromLines, linesFromDoc, sameLines, type LyricDoc, type LyricLine } from '../../shared/utils/lyric-doc'
@@ -69,6 +70,37 @@ export interface SaveInput {
   doc: LyricDoc
   note?: string | null
   kind?: Version['kind']
+  /** Placements to set (null clears one); lines not named keep the head's when unchanged. */
+  cadence?: CadenceMapInput
+}
+
+/**
+ * The cadence a new version stores: the base's placement of every line whose text and bar
+ * span are unchanged, then the sent placements on top (null clears). Only lines of the new
+ * version are kept, so a deleted line's placement goes with it.
+ */
+export function cadenceFor(lines: readonly LyricLine[], base: { lines: readonly LyricLine[], cadence: StoredCadence } | null, sent?: CadenceMapInput): StoredCadence {
+  const before = new Map((base?.lines ?? []).map(l => [l.id, l]))
+  const out: StoredCadence = {}
+  for (const line of lines) {
+    const old = before.get(line.id)
+    const kept = base?.cadence[line.id]
+    const placement = sent && line.id in sent
+      ? sent[line.id]
+      : (old && kept && old.text === line.text && (old.bars ?? 1) === (line.bars ?? 1) ? kept : null)
+    if (placement) out[line.id] = placement
+  }
+  return out
+}
+
+/** A 400 when the sent cadence names lines that the saved lines do not have. */
+export function checkCadenceLines(lines: readonly LyricLine[], sent: CadenceMapInput | undefined) {
+  if (!sent) return
+  const ids = new Set(lines.map(l => l.id))
+  const unknown = Object.keys(sent).filter(id => !ids.has(id))
+  if (unknown.length) {
+    throw createError({ statusCode: 400, message: `The cadence names line${unknown.length === 1 ? '' : 's'} not in this save: ${unknown.slice(0, 5).join(', ')}.`, data: { fields: { cadence: 'unknown line ids' } } })
+  }
 }
 
 export type SaveResult
@@ -86,7 +118,7 @@ export async function saveVersion(db: DbOrTx, input: SaveInput): Promise<SaveRes
     if (!draft) throw notFound('Draft')
     if (draft.archivedAt) throw createError({ statusCode: 409, message: 'This draft is archived. Restore it from the drafts list before saving.' })
     const [head] = draft.headVersionId
-      ? await tx.select({ id: versions.id, number: versions.number }).from(versions).where(eq(versions.id, draft.headVersionId))
+      ? await tx.select({ id: versions.id, number: versions.number, lines: versions.lines, cadence: versions.cadence }).from(versions).where(eq(versions.id, draft.headVersionId))
       : []
     if ((head?.id ?? null) !== input.baseVersionId) {
       const [side] = await tx.insert(sideSaves).values({
@@ -98,7 +130,7 @@ export async function saveVersion(db: DbOrTx, input: SaveInput): Promise<SaveRes
         doc: input.doc,
         lines: input.lines,
       }).returning({ id: sideSaves.id })
-      return { saved: false, head: head ?? null, sideSaveId: side!.id }
+      return { saved: false, head: head ? { id: head.id, number: head.number } : null, sideSaveId: side!.id }
     }
     const [version] = await tx.insert(versions).values({
       draftId: draft.id,
@@ -109,6 +141,7 @@ export async function saveVersion(db: DbOrTx, input: SaveInput): Promise<SaveRes
       note: input.note || null,
       doc: input.doc,
       lines: input.lines,
+      cadence: cadenceFor(input.lines, head ?? null, input.cadence),
     }).returning({ id: versions.id, number: versions.number })
     await tx.update(drafts).set({ headVersionId: version!.id }).where(eq(drafts.id, draft.id))
     await cancelSignoffsOnNewVersion(tx, { songId: draft.songId, draftId: draft.id, version: version! })

@@ -1,9 +1,12 @@
 import { and, asc, desc, eq, isNull } from 'drizzle-orm'
 import PDFDocument from 'pdfkit'
 import { crews, drafts, memberships, sealLifts, seals, songs, users, versions } from '../database/schema'
-import { formatMinutes } from '../../shared/utils/grid'
+import type { StoredCadence } from '../../shared/schemas/cadence'
+import { autoPlace, cadenceRow, DEFAULT_SUBDIVISION, type CadenceSyllable } from '../../shared/utils/cadence'
+import { formatMinutes, type Grid } from '../../shared/utils/grid'
 import { formatShare, SPLIT_CAUTION, totalBp } from '../../shared/utils/shares'
-import { creditLine, gridLine, sheetSections, versionLabel, type SheetModel } from '../../shared/utils/sheet'
+import { creditLine, gridLine, sheetSections, versionLabel, type SheetModel, type SheetSection } from '../../shared/utils/sheet'
+import { analyseDraft } from './prosody/analyse'
 import type { DbOrTx } from './db'
 
 /** The seal of `versionId` that was not lifted, if any. */
@@ -31,7 +34,7 @@ export async function activeSealOfSong(db: DbOrTx, songId: string) {
  * times, credits, and the split sheet (the one kept in the seal when sealed, else the
  * song's working sheet). Null when the version does not exist.
  */
-export async function loadSheetModel(db: DbOrTx, versionId: string): Promise<SheetModel | null> {
+export async function loadSheetModel(db: DbOrTx, versionId: string, options: { cadenceBars?: { from: number, to: number } } = {}): Promise<SheetModel | null> {
   const [row] = await db.select({ version: versions, draft: drafts, song: songs, crewName: crews.name }).from(versions)
     .innerJoin(drafts, eq(drafts.id, versions.draftId))
     .innerJoin(songs, eq(songs.id, drafts.songId))
@@ -42,6 +45,7 @@ export async function loadSheetModel(db: DbOrTx, versionId: string): Promise<She
   const grid = { bpm: song.bpm, beatsPerBar: song.beatsPerBar, offsetMs: song.offsetMs, feel: song.feel }
   const seal = await activeSealOfVersion(db, version.id)
   const { sections, omitted } = sheetSections(version.doc, version.lines, grid)
+  if (options.cadenceBars) await addCadenceRows(sections, version.cadence, grid, song.crewId, options.cadenceBars)
 
   const splitRows = seal
     ? seal.split.map(s => ({ name: s.name, role: s.role, shareBp: s.shareBp, member: !!s.userId, confirmed: !!s.confirmedAt }))
@@ -61,6 +65,25 @@ export async function loadSheetModel(db: DbOrTx, versionId: string): Promise<She
     omitted,
     split: splitRows.length ? { lines: splitRows, totalBp: totalBp(splitRows) } : null,
     caution: SPLIT_CAUTION,
+  }
+}
+
+/**
+ * Puts the compact cadence row (`cadenceRow`) under each performed line of the chosen bars:
+ * the stored placement when it still matches the line's syllables, else the automatic one.
+ */
+async function addCadenceRows(sections: SheetSection[], stored: StoredCadence, grid: Grid, crewId: string, bars: { from: number, to: number }) {
+  const chosen = sections.flatMap(s => s.lines).filter(l => l.bar + l.bars - 1 >= bars.from && l.bar <= bars.to)
+  if (!chosen.length) return
+  const analysis = analyseDraft({ lines: chosen.map(l => ({ id: l.id, bar: l.bar, text: l.text })) }, await loadLexicon(crewId))
+  const byId = new Map(analysis.lines.map(l => [l.id, l]))
+  for (const line of chosen) {
+    const syllables: CadenceSyllable[] = (byId.get(line.id)?.words ?? []).filter(w => !w.isAdlib)
+      .flatMap(w => w.syllableParts.map(p => ({ text: '', stress: p.stress })))
+    const frame = { sub: stored[line.id]?.sub ?? DEFAULT_SUBDIVISION, beatsPerBar: grid.beatsPerBar, bars: line.bars }
+    const kept = stored[line.id]
+    const placement = kept && kept.slots.length === syllables.length ? kept : { sub: frame.sub, slots: autoPlace(syllables, frame) }
+    line.cadence = cadenceRow(syllables, placement, { ...frame, sub: placement.sub })
   }
 }
 
@@ -171,6 +194,12 @@ export async function renderSheetPdf(model: SheetModel): Promise<Buffer> {
         else doc.text(seg.text, { continued: i < line.segments.length - 1, lineGap: 2 })
       })
       doc.x = left
+      if (line.cadence) {
+        ensure(14)
+        // Literata is the only face bundled; spacing keeps the slots apart.
+        doc.font('L').fontSize(8).fillColor(SOFT).text(line.cadence, textX, doc.y + 1, { width: textWidth, lineBreak: false, characterSpacing: 1.6 })
+        doc.x = left
+      }
       doc.moveDown(0.15)
     }
     doc.moveDown(0.7)

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { LINE_ID_PATTERN } from '../utils/lyric-doc'
+import { CadenceMapSchema } from './cadence'
 
 export const LIMITS = {
   linesPerVersion: 2000,
@@ -44,4 +45,6 @@ export const VersionSaveSchema = z.object({
   doc: z.record(z.string(), z.unknown()).optional(),
   note: z.string().trim().max(LIMITS.noteChars, `A note holds at most ${LIMITS.noteChars} characters.`).optional(),
   autosave: z.boolean().optional(),
+  /** Per-line cadence placements (see shared/schemas/cadence.ts); lines not named keep their base's. */
+  cadence: CadenceMapSchema.optional(),
 })

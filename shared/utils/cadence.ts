@@ -235,3 +235,68 @@ export function readCadence(syllables: readonly CadenceSyllable[], placement: Pl
     longestRun,
   }
 }
+
+/**
+ * Cuts a written word into `n` pieces for display on the grid, one per sung syllable: before
+ * the consonant that opens each later vowel group when the groups match the count, else in
+ * even slices. Display only; the count and stresses come from the pronunciation.
+ */
+export function splitWordText(text: string, n: number): string[] {
+  if (n <= 1) return [text]
+  const groups: number[] = []
+  const vowel = /[aeiouy]/i
+  for (let i = 0; i < text.length; i++) if (vowel.test(text[i]!) && (i === 0 || !vowel.test(text[i - 1]!))) groups.push(i)
+  let cuts: number[]
+  if (groups.length === n) cuts = groups.slice(1).map(g => (g > 0 && !vowel.test(text[g - 1]!) && g - 1 > groups[0]! ? g - 1 : g))
+  else cuts = Array.from({ length: n - 1 }, (_, k) => Math.round(((k + 1) * text.length) / n))
+  const out: string[] = []
+  let from = 0
+  for (const c of [...cuts, text.length]) {
+    out.push(text.slice(from, Math.max(from, c)))
+    from = Math.max(from, c)
+  }
+  return out.map(s => s || '·')
+}
+
+export interface CadenceTick {
+  lineId: string
+  /** The syllable's index in its line. */
+  index: number
+  stress: Stress
+  /** Song time of the syllable's slot, whole ms (slotTimeMs). */
+  slotMs: number
+}
+
+/**
+ * The ticks of some lines' placements in song order: one per placed syllable, at
+ * bar start + slot × slot length (slotTimeMs); syllables off the grid (-1) stay silent.
+ */
+export function cadenceTicks(grid: CadenceGrid, lines: ReadonlyArray<{ id: string, bar: number, syllables: readonly CadenceSyllable[], placement: Placement }>): CadenceTick[] {
+  const ticks: CadenceTick[] = []
+  for (const line of lines) {
+    line.placement.slots.forEach((slot, index) => {
+      if (slot < 0) return
+      ticks.push({ lineId: line.id, index, stress: line.syllables[index]?.stress ?? 0, slotMs: slotTimeMs(grid, line.bar, slot, line.placement.sub) })
+    })
+  }
+  return ticks.sort((a, b) => a.slotMs - b.slotMs)
+}
+
+/**
+ * A compact text row of one placement for print: `X` a primary-stressed syllable, `x` any
+ * other, `-` held, `v` a breath, `.` a rest, `|` between beats.
+ */
+export function cadenceRow(syllables: readonly CadenceSyllable[], placement: Placement, frame: SlotFrame): string {
+  const slotCount = slotCountOf(frame)
+  const perBeat = SUBDIVISIONS[placement.sub].perBeat
+  const cells = Array.from({ length: slotCount }, () => '.')
+  placement.slots.forEach((s, i) => {
+    if (s < 0 || s >= slotCount) return
+    cells[s] = syllables[i]?.stress === 1 ? 'X' : 'x'
+    for (let k = 1; k <= (placement.holds?.[i] ?? 0) && s + k < slotCount; k++) cells[s + k] = '-'
+  })
+  for (const b of placement.breaths ?? []) if (b >= 0 && b < slotCount && cells[b] === '.') cells[b] = 'v'
+  const beats: string[] = []
+  for (let i = 0; i < slotCount; i += perBeat) beats.push(cells.slice(i, i + perBeat).join(''))
+  return beats.join('|')
+}

@@ -19,6 +19,8 @@ export interface SheetLine {
   adlibOnly: boolean
   startMs: number
   endMs: number
+  /** The cadence as a row of slots (`cadenceRow`), when the sheet was asked for this bar's. */
+  cadence?: string
 }
 
 export interface SheetSection {
@@ -170,7 +172,10 @@ export function renderText(model: SheetModel): string {
   out.push(gridLine(model.grid), '')
   for (const s of model.sections) {
     if (s.heading) out.push(`[${s.heading.toUpperCase()}]`)
-    for (const l of s.lines) out.push(`${String(l.bar).padStart(4)}  ${formatMinutes(l.startMs).padStart(5)}  ${l.text.trim()}`)
+    for (const l of s.lines) {
+      out.push(`${String(l.bar).padStart(4)}  ${formatMinutes(l.startMs).padStart(5)}  ${l.text.trim()}`)
+      if (l.cadence) out.push(`${' '.repeat(13)}${l.cadence}`)
+    }
     out.push('')
   }
   if (model.split?.lines.length) {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { autoPlace, moveSyllable, readCadence, slotCountOf, slotsPerBar, slotTimeMs, slotWeight, type CadenceSyllable } from '../../shared/utils/cadence'
+import { autoPlace, cadenceRow, cadenceTicks, moveSyllable, readCadence, slotCountOf, slotsPerBar, slotTimeMs, slotWeight, splitWordText, type CadenceSyllable } from '../../shared/utils/cadence'
+import { PlacementSchema } from '../../shared/schemas/cadence'
 
 const grid90 = { bpm: 90, beatsPerBar: 4, offsetMs: 0 }
 const syl = (pattern: string): CadenceSyllable[] => [...pattern].map((s, i) => ({ text: `s${i}`, stress: Number(s) as 0 | 1 | 2 }))
@@ -92,5 +93,42 @@ describe('editing and reading', () => {
     expect(held.longestRun).toBe(4)
     const breath = readCadence(s, { sub: '16', slots: [0, 2, 4, 6], holds: [1, 1, 1, 0], breaths: [3] }, { sub: '16', beatsPerBar: 4 }, grid90)
     expect(breath.longestRun).toBe(2)
+  })
+})
+
+describe('ticks, print rows and stored placements', () => {
+  it('ticks each placed syllable at bar start + slot × slot length, in song order', () => {
+    const grid = { bpm: 90, beatsPerBar: 4, offsetMs: 700 }
+    const ticks = cadenceTicks(grid, [
+      { id: 'b', bar: 6, syllables: syl('10'), placement: { sub: '16', slots: [0, 6] } },
+      { id: 'a', bar: 5, syllables: syl('110'), placement: { sub: '8t', slots: [0, 3, -1] } },
+    ])
+    // 90 BPM: a bar is 8/3 s, a 16th 1/6 s, a triplet 8th 2/9 s (arithmetic, common practice).
+    expect(ticks.map(t => [t.lineId, t.index, t.slotMs])).toEqual([
+      ['a', 0, Math.round(700 + 4 * 8000 / 3)],
+      ['a', 1, Math.round(700 + 4 * 8000 / 3 + 3 * 2000 / 9)],
+      ['b', 0, Math.round(700 + 5 * 8000 / 3)],
+      ['b', 1, Math.round(700 + 5 * 8000 / 3 + 6 * 1000 / 6)],
+    ])
+    expect(ticks[0]!.stress).toBe(1)
+  })
+
+  it('prints a placement as one character per slot, beats apart', () => {
+    const row = cadenceRow(syl('100'), { sub: '16', slots: [0, 2, 8], holds: [1, 0, 3], breaths: [14] }, { sub: '16', beatsPerBar: 4 })
+    expect(row).toBe('X-x.|....|x---|..v.')
+    expect(cadenceRow(syl('11'), { sub: '8t', slots: [0, 4] }, { sub: '8t', beatsPerBar: 4 })).toBe('X..|.X.|...|...')
+  })
+
+  it('cuts a written word into as many pieces as it has syllables', () => {
+    expect(splitWordText('window', 2)).toEqual(['win', 'dow'])
+    expect(splitWordText('bus', 1)).toEqual(['bus'])
+    expect(splitWordText('every', 3).join('')).toBe('every')
+    expect(splitWordText('808', 3)).toHaveLength(3)
+  })
+
+  it('accepts stored placements in order only', () => {
+    expect(PlacementSchema.safeParse({ sub: '16', slots: [0, 4, -1] }).success).toBe(true)
+    expect(PlacementSchema.safeParse({ sub: '16', slots: [4, 4] }).success).toBe(false)
+    expect(PlacementSchema.safeParse({ sub: '12', slots: [0] }).success).toBe(false)
   })
 })

@@ -1,6 +1,7 @@
 import { relations, sql } from 'drizzle-orm'
 import { boolean, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import type { LyricDoc, LyricLine } from '../../../shared/utils/lyric-doc'
+import type { StoredCadence } from '../../../shared/schemas/cadence'
 import { createdAt, timestamps } from './common'
 import { users } from './auth'
 import { songs } from './songs'
@@ -37,6 +38,8 @@ export const versions = pgTable('versions', {
   note: text('note'),
   doc: jsonb('doc').$type<LyricDoc>().notNull(),
   lines: jsonb('lines').$type<LyricLine[]>().notNull(),
+  /** Cadence placements keyed by line id; a line missing here uses the automatic placement. */
+  cadence: jsonb('cadence').$type<StoredCadence>().notNull().default({}),
   createdAt,
 }, t => [
   uniqueIndex('versions_draft_number_key').on(t.draftId, t.number),

@@ -14,6 +14,7 @@ export default defineEventHandler(async (event) => {
     parentId: version.parentId,
     lines: version.lines,
     doc: version.doc,
+    cadence: version.cadence,
     sealed: !!seal,
     sealedAt: seal?.sealedAt ?? null,
   }

@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const [current] = await db.select({ headVersionId: drafts.headVersionId }).from(drafts).where(eq(drafts.id, draft.id))
   const result = await saveVersion(db, {
-    draft, authorId: user.id, baseVersionId: current!.headVersionId, lines: version.lines, doc: version.doc,
+    draft, authorId: user.id, baseVersionId: current!.headVersionId, lines: version.lines, doc: version.doc, cadence: version.cadence,
     note: `Restored version ${version.number}`, kind: 'restore',
   })
   if (!result.saved) throw staleSaveError(result)

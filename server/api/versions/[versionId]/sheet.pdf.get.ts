@@ -1,6 +1,9 @@
+import { SheetCadenceQuerySchema } from '../../../../shared/schemas/cadence'
+
 export default defineEventHandler(async (event) => {
   const { version } = await requireVersionAccess(event, 'song.view')
-  const model = await loadSheetModel(useDb(), version.id)
+  const { cadence } = validQuery(event, SheetCadenceQuerySchema)
+  const model = await loadSheetModel(useDb(), version.id, { cadenceBars: cadence })
   if (!model) throw notFound('Version')
   const pdf = await renderSheetPdf(model)
   setResponseHeaders(event, {

@@ -1,8 +1,10 @@
+import { SheetCadenceQuerySchema } from '../../../../shared/schemas/cadence'
 import { renderText } from '../../../../shared/utils/sheet'
 
 export default defineEventHandler(async (event) => {
   const { version } = await requireVersionAccess(event, 'song.view')
-  const model = await loadSheetModel(useDb(), version.id)
+  const { cadence } = validQuery(event, SheetCadenceQuerySchema)
+  const model = await loadSheetModel(useDb(), version.id, { cadenceBars: cadence })
   if (!model) throw notFound('Version')
   setResponseHeaders(event, {
     'Content-Type': 'text/plain; charset=utf-8',

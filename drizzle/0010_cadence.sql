@@ -1,0 +1,1 @@
+ALTER TABLE "versions" ADD COLUMN "cadence" jsonb DEFAULT '{}'::jsonb NOT NULL;
