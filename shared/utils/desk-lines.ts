@@ -5,6 +5,7 @@
  */
 import type { BlockNode, LyricDoc, LyricLine, SectionRef } from './lyric-doc'
 import { docFromLines } from './lyric-doc'
+import { SECTION_KIND_LABELS } from '../schemas/beats'
 
 export const MAX_BAR = 9999
 export const MAX_SPAN = 2
@@ -91,7 +92,12 @@ export function editableDoc(doc: LyricDoc | null | undefined, sections: readonly
 /** The section a line falls in by its bar, for "loop this section". */
 export function sectionRangeOf(sections: readonly SectionRef[], bar: number): { startBar: number, endBar: number, label: string } | null {
   const s = sections.find(x => bar >= x.startBar && bar <= x.endBar)
-  return s ? { startBar: s.startBar, endBar: s.endBar, label: s.label || s.kind } : null
+  return s ? { startBar: s.startBar, endBar: s.endBar, label: sectionTitle(s.kind, s.label) } : null
+}
+
+/** A section's name as the desk shows it: its own label, else the name of its kind. */
+export function sectionTitle(kind: string | null | undefined, label: string | null | undefined): string {
+  return label || (kind ? (SECTION_KIND_LABELS as Record<string, string>)[kind] ?? kind : '')
 }
 
 /** Ad-lib spans in a line's text: the parenthesised parts, as [from, to) character offsets. */

@@ -43,7 +43,7 @@ describe('line ↔ bar mapping', () => {
 
   it('finds the section a bar falls in, for looping it', () => {
     expect(sectionRangeOf(SECTIONS, 9)).toEqual({ startBar: 5, endBar: 12, label: 'Hook' })
-    expect(sectionRangeOf(SECTIONS, 13)).toEqual({ startBar: 13, endBar: 28, label: 'verse' })
+    expect(sectionRangeOf(SECTIONS, 13)).toEqual({ startBar: 13, endBar: 28, label: 'Verse' })
     expect(sectionRangeOf(SECTIONS, 2)).toBeNull()
   })
 

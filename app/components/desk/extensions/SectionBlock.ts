@@ -1,4 +1,5 @@
 import { mergeAttributes, Node } from '@tiptap/core'
+import { sectionTitle } from '../../../../shared/utils/desk-lines'
 
 /**
  * A block of lines: one of the song's sections (sectionId, kind, label) or loose lines (all null).
@@ -13,7 +14,7 @@ export const SectionBlock = Node.create({
     return {
       sectionId: { default: null, parseHTML: el => el.getAttribute('data-section-id'), renderHTML: a => (a.sectionId ? { 'data-section-id': a.sectionId } : {}) },
       kind: { default: null, parseHTML: el => el.getAttribute('data-kind'), renderHTML: a => (a.kind ? { 'data-kind': a.kind } : {}) },
-      label: { default: null, parseHTML: el => el.getAttribute('data-label'), renderHTML: a => (a.label || a.kind ? { 'data-label': a.label || a.kind } : {}) },
+      label: { default: null, parseHTML: el => el.getAttribute('data-label'), renderHTML: a => (a.label || a.kind ? { 'data-label': sectionTitle(a.kind, a.label) } : {}) },
     }
   },
   parseHTML() {
