@@ -49,7 +49,7 @@ export const RhymeMarks = Extension.create<{ marksOf: (lineId: string) => LineMa
           const cls = [w.letter ? `desk-rhyme desk-rhyme-${w.pattern ?? 0}` : '', w.guessed ? 'desk-guess' : ''].filter(Boolean).join(' ')
           if (!cls) continue
           decos.push(Decoration.inline(pos + 1 + w.start, pos + 1 + w.end, {
-            'class': cls,
+            class: cls,
             ...(w.letter ? { 'data-family': w.letter } : {}),
             ...(w.guessed ? { 'data-guess': 'true' } : {}),
           }))
