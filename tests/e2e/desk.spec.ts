@@ -122,12 +122,22 @@ describe('the lyric desk in Chromium', () => {
     expect(before).not.toBe(5)
     expect(await row(page, 7).getByTestId(`teach-${word}`).count()).toBe(0)
 
+    // The rhyme finder in place: select "glow", pick a perfect rhyme, it replaces the selection.
+    await row(page, 5).locator('.desk-rhyme', { hasText: 'glow' }).dblclick()
+    await page.keyboard.press('Alt+r')
+    const finder = page.getByTestId('desk-rhymes-panel').getByTestId('rhymes-perfect')
+    const candidate = finder.getByRole('button').first()
+    await candidate.waitFor({ timeout: 10_000 })
+    const picked = (await candidate.textContent())!.trim()
+    await candidate.click()
+    await expect.poll(() => row(page, 5).getByTestId('line-text').textContent()).toBe(`Last bus humming past the neon ${picked}`)
+
     // Everything typed was saved to the draft, ids stable and unique.
     await page.getByRole('button', { name: 'Save version' }).click()
     await page.getByTestId('saver-status').getByText('All saved').waitFor({ timeout: 10_000 })
     const head = (await writer.get(`/api/drafts/${draftId}`)).body.headVersionId
     const saved = (await writer.get(`/api/versions/${head}`)).body
-    expect(saved.lines.map((l: any) => [l.bar, l.text])).toEqual([[5, 'Last bus humming past the neon glow'], [6, 'Head on the window and the wheels go slow now'], [7, word]])
+    expect(saved.lines.map((l: any) => [l.bar, l.text])).toEqual([[5, `Last bus humming past the neon ${picked}`], [6, 'Head on the window and the wheels go slow now'], [7, word]])
     expect(new Set(saved.lines.map((l: any) => l.id)).size).toBe(3)
     expect(saved.doc.content.map((b: any) => b.attrs.kind)).toEqual(['hook'])
     expect(external).toEqual([])
