@@ -19,7 +19,7 @@ afterAll(async () => close?.())
 
 const row = (page: Page, bar: number) => page.locator(`[data-testid="desk-line"][data-bar="${bar}"]`).first()
 /** An invented word no dictionary holds, different on every run (letters only). */
-const inventedWord = () => `blorv${Array.from(randomBytes(3), b => 'bcdfgklmnprstvz'[b % 15]).join('')}`
+const inventedWord = () => `blorv${Array.from(randomBytes(6), b => 'bcdfgklmnprstvz'[b % 15]).join('')}`
 
 async function typeAtEnd(page: Page, bar: number, text: string) {
   await row(page, bar).getByTestId('line-text').click()
@@ -46,9 +46,9 @@ describe('the lyric desk in Chromium', () => {
     await row(page, 1).getByTestId('line-text').click()
     await page.getByTestId('desk-bar-input').fill('5')
     await page.getByTestId('desk-bar-input').press('Enter')
-    await row(page, 5).waitFor()
+    await expect.poll(() => row(page, 5).isVisible(), { timeout: 10_000 }).toBe(true)
     // The line joined the hook's block.
-    await page.locator('.desk-block[data-label="Hook"] [data-testid="desk-line"][data-bar="5"]').waitFor()
+    await expect.poll(() => page.locator('.desk-block[data-label="Hook"] [data-testid="desk-line"][data-bar="5"]').count(), { timeout: 10_000 }).toBe(1)
 
     await typeAtEnd(page, 5, 'Last bus humming past the neon glow')
     await page.keyboard.press('Enter')
