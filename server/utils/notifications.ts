@@ -8,7 +8,7 @@ const quote = (s: string, max = 120) => `“${s.length > max ? `${s.slice(0, max
 
 /** Where a line's alts are read and decided (the song's lines room, on that draft and line). */
 export function linePath(songId: string, draftId: string, lineId: string) {
-  return `/songs/${songId}/lines?draft=${draftId}&line=${encodeURIComponent(lineId)}`
+  return `/songs/${songId}?draft=${draftId}&line=${encodeURIComponent(lineId)}`
 }
 
 /**

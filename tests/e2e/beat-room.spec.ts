@@ -131,7 +131,11 @@ describe('beat room in Chromium', () => {
     await signInDemo(page, 'writer')
     await page.getByTestId('crew-list').getByText('Lamplight Collective').click()
     await page.getByTestId('song-list').getByText('Night Bus Home').click()
-    await page.getByRole('link', { name: 'Open the beat room' }).click()
+    // The song opens at the desk, with the beat lane on top; the Beat tab opens the beat room.
+    await page.getByTestId('desk').waitFor()
+    await lane(page).waitFor()
+    await page.getByRole('navigation', { name: 'Song' }).getByRole('link', { name: 'Beat', exact: true }).click()
+    await page.getByTestId('section-list').waitFor()
     await lane(page).waitFor()
     for (const name of ['Intro', 'Verse 1', 'Hook', 'Outro']) await page.getByTestId('section-list').locator('.font-lyric').getByText(name, { exact: true }).waitFor()
     await expect(page.getByTestId('grid-summary').textContent()).resolves.toMatch(/^90 BPM · 4\/4/)

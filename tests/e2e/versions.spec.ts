@@ -30,7 +30,15 @@ async function freshSong(title: string) {
   return { songId, draftId, v1Id: v1.id as string }
 }
 
-const lineText = (page: Page, id: string) => page.getByTestId(`line-${id}`).getByTestId('line-text')
+const lineText = (page: Page, id: string) => page.locator(`[data-row-line="${id}"]`).getByTestId('line-text')
+
+/** Replaces a line's text at the desk as a writer types it: select the line, type over it. */
+async function retype(page: Page, id: string, text: string) {
+  await lineText(page, id).click()
+  await page.keyboard.press('End')
+  await page.keyboard.press('Shift+Home')
+  await page.keyboard.type(text)
+}
 
 describe('alts live, as two people at once', () => {
   it('the co-writer proposes an alt, the writer sees it appear, takes it, and the co-writer sees the new line', async () => {
@@ -39,17 +47,20 @@ describe('alts live, as two people at once', () => {
     const wr = await newPage(browser)
     await signInDemo(co.page, 'cowriter')
     await signInDemo(wr.page, 'writer')
-    await co.page.goto(`/songs/${songId}/lines`)
-    await wr.page.goto(`/songs/${songId}/lines`)
+    await co.page.goto(`/songs/${songId}`)
+    await wr.page.goto(`/songs/${songId}`)
     await lineText(co.page, 'e2').waitFor()
     await lineText(wr.page, 'e2').waitFor()
     // Each sees the other on the song.
     await co.page.getByTestId('live-presence').locator('[data-user="Ivy Sato"]').waitFor()
     await wr.page.getByTestId('live-presence').locator('[data-user="Theo Ruiz"]').waitFor()
-    // A co-writer gets no editor.
-    expect(await co.page.getByRole('button', { name: 'Edit lines' }).count()).toBe(0)
+    // A co-writer gets a read-only desk.
+    await co.page.getByTestId('desk-readonly').waitFor()
+    expect(await co.page.getByTestId('desk-editor').getAttribute('contenteditable')).toBe('false')
+    expect(await co.page.getByTestId('saver-status').count()).toBe(0)
 
-    await co.page.getByTestId('alts-toggle-e2').click()
+    // Clicking a line opens its panel beside the page.
+    await lineText(co.page, 'e2').click()
     const panel = co.page.getByTestId('alts-panel-e2')
     await panel.getByLabel('Propose an alt for bar 2').fill('Counting my steps till the sky turns to blue')
     await panel.getByRole('button', { name: 'Propose alt' }).click()
@@ -74,7 +85,7 @@ describe('alts live, as two people at once', () => {
 
     // The co-writer's page follows without a reload.
     await lineText(co.page, 'e2').getByText('Counting my steps till the sky turns to blue').waitFor({ timeout: 10_000 })
-    await co.page.getByTestId('lines-version').getByText('version 2').waitFor()
+    await co.page.getByTestId('desk-version').getByText('version 2').waitFor()
     await screenshot(co.page, 'alts-cowriter-sees-new-line')
     for (const p of [co, wr]) {
       expect(p.external).toEqual([])
@@ -90,22 +101,21 @@ describe('unsaved text is never lost', () => {
     const { songId, draftId } = await freshSong('Dropped connection')
     const { page, context, pageErrors } = await newPage(browser)
     await signInDemo(page, 'writer')
-    await page.goto(`/songs/${songId}/lines`)
+    await page.goto(`/songs/${songId}`)
     await hydrated(page)
-    await page.getByRole('button', { name: 'Edit lines' }).click()
+    await lineText(page, 'e3').waitFor()
     // Saves get no answer: as if the connection dropped.
     const drop = (route: any) => (route.request().method() === 'POST' ? route.abort('internetdisconnected') : route.continue())
     await page.route('**/api/drafts/*/versions', drop)
-    await page.getByTestId('edit-e3').fill('Keys in my fist and a hook in my chest')
+    await retype(page, 'e3', 'Keys in my fist and a hook in my chest')
     await page.getByRole('button', { name: 'Save version' }).click()
     await page.getByTestId('saver-status').getByText('Offline').waitFor()
     await screenshot(page, 'saver-offline')
 
     await page.reload()
     await hydrated(page)
-    await page.getByRole('button', { name: 'Edit lines' }).click()
     await page.getByTestId('saver-restored').waitFor()
-    expect(await page.getByTestId('edit-e3').inputValue()).toBe('Keys in my fist and a hook in my chest')
+    expect(await lineText(page, 'e3').textContent()).toBe('Keys in my fist and a hook in my chest')
 
     await page.unroute('**/api/drafts/*/versions', drop)
     await page.getByTestId('saver-status').getByText('All saved').waitFor({ timeout: 15_000 })
@@ -122,16 +132,15 @@ describe('unsaved text is never lost', () => {
     const { songId, draftId, v1Id } = await freshSong('Merge me')
     const { page, context, pageErrors } = await newPage(browser)
     await signInDemo(page, 'writer')
-    await page.goto(`/songs/${songId}/lines`)
+    await page.goto(`/songs/${songId}`)
     await hydrated(page)
-    await page.getByRole('button', { name: 'Edit lines' }).click()
-    await page.getByTestId('edit-e1').waitFor()
-    // Meanwhile the owner saves a change to bar 4.
+    await lineText(page, 'e1').waitFor()
     const owner = await asDemo('owner')
+    // The writer starts typing (unsaved text is never replaced by someone else's save)…
+    await retype(page, 'e1', 'Corner store neon is humming the blues')
+    // …meanwhile the owner saves a change to bar 4.
     const theirs = await owner.post(`/api/drafts/${draftId}/versions`, { baseVersionId: v1Id, lines: LINES.map(l => (l.id === 'e4' ? { ...l, text: 'Home is a bus and the window my rest' } : l)) })
     expect(theirs.status).toBe(201)
-
-    await page.getByTestId('edit-e1').fill('Corner store neon is humming the blues')
     await page.getByRole('button', { name: 'Save version' }).click()
     const merge = page.getByTestId('merge-view')
     await merge.waitFor()
@@ -183,9 +192,13 @@ describe('history of the demo song', () => {
     await page.getByRole('button', { name: 'Compare drafts' }).click()
     const compare = page.getByTestId('draft-compare')
     await compare.waitFor()
+    // Main against the seeded slower take (other tests may add drafts of their own to the demo song).
+    const slower = await compare.getByTestId('compare-right').locator('option', { hasText: 'Hook, slower take' }).getAttribute('value')
+    await compare.getByTestId('compare-right').selectOption(slower!)
+    await page.waitForURL(url => url.searchParams.get('right') === slower)
     await compare.locator('tr[data-same="false"]').first().waitFor()
     // Bars 7 and 11 (the slower hook), 17 (reworded later in Main) and 21–28 (only Main has them).
-    expect(await compare.locator('tr[data-same="false"]').count()).toBe(11)
+    await expect.poll(() => compare.locator('tr[data-same="false"]').count(), { timeout: 10_000 }).toBe(11)
     await screenshot(page, 'history-compare-drafts')
 
     await page.getByRole('button', { name: 'Versions' }).click()

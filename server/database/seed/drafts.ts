@@ -82,7 +82,7 @@ export async function seedDrafts(tx: DbOrTx, people: DemoPeople, song: { songId:
     userId: people.writer.id, kind: 'alt.proposed', songId: song.songId, draftId: main!.id, altId: alt!.id, actorId: people.cowriter.id,
     title: 'New alt on your line in “Night Bus Home”',
     body: `${people.cowriter.name} proposed “${alt!.text}” for bar ${line.bar} (“${line.text}”) in the draft “Main”.`,
-    url: `/songs/${song.songId}/lines?draft=${main!.id}&line=${line.id}`,
+    url: `/songs/${song.songId}?draft=${main!.id}&line=${line.id}`,
     createdAt: hoursAgo(3),
   })
 
