@@ -132,14 +132,27 @@ describe('the lyric desk in Chromium', () => {
     await candidate.click()
     await expect.poll(() => row(page, 5).getByTestId('line-text').textContent()).toBe(`Last bus humming past the neon ${picked}`)
 
+    // Leave the taught line out: kept in the draft, struck through, not performed.
+    await row(page, 7).getByTestId('line-text').click()
+    await page.getByTestId('desk-tab-line').click()
+    await page.getByTestId('desk-out').check()
+    await expect.poll(() => row(page, 7).getAttribute('class')).toContain('is-out')
+
     // Everything typed was saved to the draft, ids stable and unique.
     await page.getByRole('button', { name: 'Save version' }).click()
     await page.getByTestId('saver-status').getByText('All saved').waitFor({ timeout: 10_000 })
     const head = (await writer.get(`/api/drafts/${draftId}`)).body.headVersionId
     const saved = (await writer.get(`/api/versions/${head}`)).body
     expect(saved.lines.map((l: any) => [l.bar, l.text])).toEqual([[5, `Last bus humming past the neon ${picked}`], [6, 'Head on the window and the wheels go slow now'], [7, word]])
+    expect(saved.lines.map((l: any) => !!l.out)).toEqual([false, false, true])
     expect(new Set(saved.lines.map((l: any) => l.id)).size).toBe(3)
     expect(saved.doc.content.map((b: any) => b.attrs.kind)).toEqual(['hook'])
+
+    // The current line's cadence opens in the cadence room, on this draft and bar.
+    await row(page, 6).getByTestId('line-text').click()
+    await page.getByTestId('desk-cadence-link').click()
+    await page.waitForURL(url => url.pathname.endsWith('/cadence') && url.searchParams.get('bar') === '6' && url.searchParams.get('draft') === draftId)
+    await page.getByTestId('cadence-room').waitFor()
     expect(external).toEqual([])
     expect(pageErrors).toEqual([])
     await context.close()

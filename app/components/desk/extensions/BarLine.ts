@@ -13,6 +13,8 @@ declare module '@tiptap/core' {
       setLineBar: (bar: number) => ReturnType
       /** Sets how many bars the line at the cursor holds (1 or 2). */
       setLineSpan: (bars: number) => ReturnType
+      /** Marks the line at the cursor out (kept in the draft, not performed) or back in. */
+      setLineOut: (out: boolean) => ReturnType
       /** Starts a new line after the cursor, on the next free bar. */
       startLine: () => ReturnType
     }
@@ -81,6 +83,12 @@ export const BarLine = Node.create({
         const at = lineAtCursor(state)
         if (!at) return false
         if (dispatch) tr.setNodeMarkup(at.pos, undefined, { ...at.node.attrs, bars: Math.max(1, Math.min(MAX_SPAN, Math.round(bars))) })
+        return true
+      },
+      setLineOut: out => ({ state, tr, dispatch }) => {
+        const at = lineAtCursor(state)
+        if (!at) return false
+        if (dispatch) tr.setNodeMarkup(at.pos, undefined, { ...at.node.attrs, out })
         return true
       },
       startLine: () => ({ state, tr, dispatch }) => {
