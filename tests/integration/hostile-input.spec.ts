@@ -12,7 +12,7 @@ import { makeCrew, type TestCrew } from '../support/people'
 import { discoverRoutes } from '../support/routes'
 
 const SEED = Number(process.env.FUZZ_SEED ?? 20261202)
-const RUNS = Number(process.env.FUZZ_RUNS ?? 4000)
+const RUNS = Number(process.env.FUZZ_RUNS ?? 3000)
 
 const routes = discoverRoutes().map((r) => {
   const [method, route] = r.split(' ') as [string, string]
