@@ -111,7 +111,8 @@ describe('lyric markup is text', () => {
     const saved = await owner.post(`/api/drafts/${draftId}/versions`, { baseVersionId: null, lines: hostile, note: '<i>note</i>' })
     expect(saved.status, saved.text).toBe(201)
     // Stored as sent.
-    const back = await owner.get(`/api/drafts/${draftId}`)
+    const back = await owner.get(`/api/versions/${saved.body.id}`)
+    expect(back.status).toBe(200)
     expect(JSON.stringify(back.body)).toContain('<script>window.__xss = 1</script>')
 
     const t = await newPage(browser)
@@ -125,8 +126,9 @@ describe('lyric markup is text', () => {
     for (const room of ['sheet', 'history', 'map', 'lines']) {
       await t.page.goto(`/songs/${songId}/${room}`)
       await hydrated(t.page)
-      await t.page.getByText('late bus', { exact: false }).first().waitFor({ timeout: 15_000 })
-      const body = await t.page.locator('body').innerText()
+      await t.page.getByText('late bus', { exact: false }).first().waitFor({ state: 'attached', timeout: 15_000 })
+      await t.page.waitForTimeout(300)
+      const body = (await t.page.locator('#__nuxt').textContent()) ?? ''
       expect(body, room).toContain('<script>window.__xss = 1</script>')
       expect(body, room).toContain('<img src=x onerror="window.__xss = 2">')
       expect(await t.page.locator('img[src="x"], svg[onload], script:not([src]):not([type="application/json"]):not([nonce])').count(), room).toBe(0)
