@@ -50,13 +50,13 @@ export default defineNuxtConfig({
       localMail,
     },
   },
-  compatibilityDate: '2026-06-01',
 
   // Security headers on every response, static files included. Rendered pages replace the
   // locked-down policy with the page policy and its nonce (server/plugins/05.csp.ts).
   routeRules: {
     '/**': { headers: { ...BASE_SECURITY_HEADERS, 'Content-Security-Policy': API_CSP } },
   },
+  compatibilityDate: '2026-06-01',
 
   nitro: {
     experimental: { tasks: false },

@@ -15,21 +15,21 @@ export const BASE_SECURITY_HEADERS: Record<string, string> = {
 }
 
 /** For API responses and files: nothing may run or be framed. */
-export const API_CSP = "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'"
+export const API_CSP = 'default-src \'none\'; frame-ancestors \'none\'; base-uri \'none\'; form-action \'none\''
 
 export function pageCsp(nonce: string): string {
   return [
-    "default-src 'self'",
+    'default-src \'self\'',
     `script-src 'self' 'nonce-${nonce}'`,
-    "style-src 'self' 'unsafe-inline'",
-    "img-src 'self' data: blob:",
-    "font-src 'self' data:",
-    "media-src 'self' blob:",
-    "connect-src 'self'",
-    "worker-src 'self' blob:",
-    "object-src 'none'",
-    "base-uri 'self'",
-    "form-action 'self'",
-    "frame-ancestors 'none'",
+    'style-src \'self\' \'unsafe-inline\'',
+    'img-src \'self\' data: blob:',
+    'font-src \'self\' data:',
+    'media-src \'self\' blob:',
+    'connect-src \'self\'',
+    'worker-src \'self\' blob:',
+    'object-src \'none\'',
+    'base-uri \'self\'',
+    'form-action \'self\'',
+    'frame-ancestors \'none\'',
   ].join('; ')
 }

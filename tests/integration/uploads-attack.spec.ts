@@ -113,7 +113,6 @@ describe('uploads under attack', () => {
           method: 'POST',
           headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': kind === 'beats' ? producer.cookieHeader : writer.cookieHeader, 'transfer-encoding': 'chunked' },
         })
-        let timer: NodeJS.Timeout | undefined
         req.on('response', (res) => {
           clearInterval(timer)
           done({ status: res.statusCode!, sent })
@@ -127,7 +126,7 @@ describe('uploads under attack', () => {
         req.write(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="slow.wav"\r\nContent-Type: audio/wav\r\n\r\n`)
         req.write(smallWav({ bars: 1 }).subarray(0, 4096))
         // 32 KB every 15 ms: a slow client, up to 4 MB (four times the limit).
-        timer = setInterval(() => {
+        const timer = setInterval(() => {
           if (sent >= 4 * 1024 * 1024) {
             clearInterval(timer)
             req.end()
@@ -159,14 +158,17 @@ describe('uploads under attack', () => {
       else expect(b.body.message).toEqual(expect.any(String))
       const t = await take(writer, songId, wav, name)
       expect([201, 400], `${JSON.stringify(name)} ${t.text}`).toContain(t.status)
+      // eslint-disable-next-line no-control-regex -- control characters are what is being checked for
       if (t.status === 201) expect(t.body.name ?? '').not.toMatch(/[\u0000-\u001F]/)
     }
     expect(stored).toBeGreaterThanOrEqual(names.length - 1)
     const rows = await sql('SELECT original_name FROM beats WHERE song_id = $1', [songId])
     expect(rows.length).toBe(stored)
+    // eslint-disable-next-line no-control-regex -- control characters are what is being checked for
     for (const r of rows) expect(r.original_name).not.toMatch(/[\u0000-\u001F\u007F]/)
     const keys = await keysInDatabase([songId])
     for (const k of keys) {
+      // eslint-disable-next-line no-control-regex -- control characters are what is being checked for
       expect(k).not.toMatch(/\.\.|escape|passwd|[\u0000-\u001F]/)
       expect(resolve(storageRoot, k).startsWith(storageRoot + sep)).toBe(true)
     }
