@@ -26,6 +26,8 @@ try {
     'sign-in (wrong password)': email => ({ path: '/api/auth/login', body: { email, password: 'not-the-password-1' } }),
     'sign-up': email => ({ path: '/api/auth/register', body: { name: 'Bench Bo', email, password: 'long enough password' } }),
     'reset request': email => ({ path: '/api/auth/forgot', body: { email } }),
+    // The demo owner is confirmed, so a known address gets no new link here, as an unknown one.
+    'confirmation link again': email => ({ path: '/api/auth/resend', body: { email } }),
   }
   const rows = {}
   for (const [name, make] of Object.entries(cases)) {
