@@ -16,4 +16,11 @@ export default defineNitroPlugin((nitroApp) => {
     html.bodyAppend = html.bodyAppend.map(withNonce)
     setResponseHeader(event, 'Content-Security-Policy', pageCsp(nonce))
   })
+  // Chromium shows an inline PDF (the sheet) through its built-in viewer, which a
+  // default-src 'none' policy on the PDF response can block: keep only the framing rule there.
+  nitroApp.hooks.hook('beforeResponse', (event) => {
+    if (String(getResponseHeader(event, 'content-type') ?? '').startsWith('application/pdf')) {
+      setResponseHeader(event, 'Content-Security-Policy', 'frame-ancestors \'none\'')
+    }
+  })
 })

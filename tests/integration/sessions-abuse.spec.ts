@@ -186,4 +186,16 @@ describe('security headers', () => {
     expect(again.headers.get('content-security-policy')).not.toContain(nonce)
     expect((await client.get('/api/health')).headers.get('content-security-policy')).toMatch(/default-src 'none'/)
   })
+
+  it('leave the sheet PDF viewable (framing refused, nothing else locked) and unsniffable', async () => {
+    const crew = await makeCrew()
+    const songId = (await crew.as.owner.post(`/api/crews/${crew.crewId}/songs`, { title: 'Header sheet' })).body.id
+    const draftId = (await crew.as.owner.post(`/api/songs/${songId}/drafts`, { name: 'Main' })).body.id
+    const versionId = (await crew.as.owner.post(`/api/drafts/${draftId}/versions`, { baseVersionId: null, lines: [{ id: 'h1', bar: 1, text: 'one line' }] })).body.id
+    const pdf = await crew.as.owner.get(`/api/versions/${versionId}/sheet.pdf`)
+    expect(pdf.status).toBe(200)
+    expect(pdf.headers.get('content-type')).toMatch(/^application\/pdf/)
+    expect(pdf.headers.get('content-security-policy')).toBe('frame-ancestors \'none\'')
+    expect(pdf.headers.get('x-content-type-options')).toBe('nosniff')
+  })
 })

@@ -107,6 +107,7 @@ describe('uploads under attack', () => {
     songs.push(songId)
     for (const kind of ['beats', 'takes?bar=1&durationMs=1000']) {
       const boundary = 'barsmithslow'
+      let sawTemp = false
       const { status, sent } = await new Promise<{ status: number, sent: number }>((done, fail) => {
         let sent = 0
         const req = httpRequest(`${base}/api/songs/${songId}/${kind}`, {
@@ -134,10 +135,13 @@ describe('uploads under attack', () => {
           }
           sent += 32 * 1024
           req.write(Buffer.alloc(32 * 1024, 3))
+          // While it arrives, the body is in this server's temporary directory (so "empty" below means something).
+          if (!sawTemp && sent > 256 * 1024) sawTemp = filesUnder(tmpRoot).length > 0
         }, 15)
       })
       expect(status, kind).toBe(413)
       expect(sent).toBeLessThan(4 * 1024 * 1024)
+      expect(sawTemp, kind).toBe(true)
     }
     expect(await keysInDatabase([songId])).toEqual([])
     expect(storedKeys().filter(k => k.includes(songId))).toEqual([])
