@@ -13,3 +13,6 @@ export async function answerNoSoonerThan(startedAt: number, minMs: number) {
 
 /** The floor for the e-mail link routes: above their known-address work on a loaded laptop. */
 export const MAIL_LINK_FLOOR_MS = 60
+
+/** The floor for sign-up (a new account writes more rows than the mail to an existing one): above its scrypt hash and writes. */
+export const SIGN_UP_FLOOR_MS = 250
