@@ -86,13 +86,16 @@ describe('content security policy in Chromium', () => {
     }, 180_000)
   }
 
-  it('the beat room loads the demo beat's waveform with no violation', async () => {
+  it('the beat room plays the demo beat with no violation', async () => {
     const t = await newPage(browser)
     const violations = await watchCsp(t.page)
     await signInDemo(t.page, 'owner')
     await t.page.goto(`/songs/${ids.songId}/beat`)
     await hydrated(t.page)
-    await t.page.waitForTimeout(1500)
+    await t.page.getByTestId('beat-lane').waitFor()
+    await t.page.getByTestId('play').click()
+    await t.page.locator('[data-testid="beat-lane"][data-playing="true"]').waitFor({ timeout: 15_000 })
+    await t.page.waitForTimeout(1000)
     await screenshot(t.page, 'security-beat-room')
     expect(violations).toEqual([])
     await t.context.close()
