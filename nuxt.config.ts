@@ -2,6 +2,7 @@ import { cp } from 'node:fs/promises'
 import { createRequire } from 'node:module'
 import { resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { API_CSP, BASE_SECURITY_HEADERS } from './server/utils/security-headers'
 
 // The dev mailbox (fake SMTP inbox pages) is compiled in only when the local scripts ask
 // for it, so a production build has no such routes at all.
@@ -48,6 +49,12 @@ export default defineNuxtConfig({
     public: {
       localMail,
     },
+  },
+
+  // Security headers on every response, static files included. Rendered pages replace the
+  // locked-down policy with the page policy and its nonce (server/plugins/05.csp.ts).
+  routeRules: {
+    '/**': { headers: { ...BASE_SECURITY_HEADERS, 'Content-Security-Policy': API_CSP } },
   },
   compatibilityDate: '2026-06-01',
 

@@ -11,6 +11,9 @@ const LIMITS = {
   register: { points: 10, duration: 60 * 60 },
   mailLink: { points: 5, duration: 60 * 60 },
   invite: { points: 50, duration: 60 * 60 },
+  // Wrong or used reset links from one address (links are long random tokens; this stops
+  // scrypt work and guessing at scale, not a person who clicks an old link twice).
+  resetLink: { points: 20, duration: 15 * 60, blockDuration: 15 * 60 },
 } as const
 
 export type ThrottleName = keyof typeof LIMITS

@@ -5,6 +5,7 @@ import { invites, memberships, users } from '../../database/schema'
 const SAME_ANSWER = { ok: true, signedIn: false, message: 'Check your e-mail: we sent a link to confirm the address.' }
 
 export default defineEventHandler(async (event) => {
+  const startedAt = performance.now()
   const body = await validBody(event, RegisterSchema)
   await throttle(event, 'register', clientAddress(event), 'sign-ups from this address')
   const db = useDb()
@@ -40,6 +41,7 @@ export default defineEventHandler(async (event) => {
       'Someone tried to create a Barsmith account with this address, which already has one.',
       'Sign in or reset your password', appLink('/signin'),
       'If it was not you, you can ignore this message.'))
+    await answerNoSoonerThan(startedAt, SIGN_UP_FLOOR_MS)
     setResponseStatus(event, 201)
     return SAME_ANSWER
   }
@@ -49,6 +51,7 @@ export default defineEventHandler(async (event) => {
     const token = await issueEmailToken(tx, user!.id, 'verify')
     await queueMail(tx, verifyMail(user!.email, user!.name, appLink(`/verify?token=${token}`)))
   })
+  await answerNoSoonerThan(startedAt, SIGN_UP_FLOOR_MS)
   setResponseStatus(event, 201)
   return SAME_ANSWER
 })

@@ -1,6 +1,7 @@
 import { EmailOnlySchema } from '../../../shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
+  const startedAt = performance.now()
   const { email } = await validBody(event, EmailOnlySchema)
   await throttle(event, 'mailLink', `${clientAddress(event)}|${email}`, 'e-mail links requested')
   const db = useDb()
@@ -11,5 +12,6 @@ export default defineEventHandler(async (event) => {
       await queueMail(tx, verifyMail(user.email, user.name, appLink(`/verify?token=${token}`)))
     })
   }
+  await answerNoSoonerThan(startedAt, MAIL_LINK_FLOOR_MS)
   return { ok: true, message: 'If that address has an account waiting for confirmation, a new link is on its way.' }
 })

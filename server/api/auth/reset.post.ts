@@ -4,10 +4,15 @@ import { users } from '../../database/schema'
 
 export default defineEventHandler(async (event) => {
   const { token, password } = await validBody(event, ResetSchema)
+  const address = clientAddress(event)
+  await assertNotThrottled(event, 'resetLink', address, 'password reset attempts from this address')
   const passwordHash = await hashPassword(password)
   const db = useDb()
   const email = await db.transaction(async (tx) => {
-    const userId = await consumeEmailToken(tx, token, 'reset')
+    const userId = await consumeEmailToken(tx, token, 'reset').catch(async (error) => {
+      await countFailure('resetLink', address)
+      throw error
+    })
     // A new session version signs out every session made with the old password.
     const [user] = await tx.update(users).set({
       passwordHash,
