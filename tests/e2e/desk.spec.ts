@@ -44,9 +44,11 @@ describe('the lyric desk in Chromium', () => {
     expect(await page.getByTestId('desk-line').count()).toBe(1)
     // The bar in the line panel is editable: put the line on bar 5, where the hook starts.
     await row(page, 1).getByTestId('line-text').click()
+    // The panel shows the line under the cursor before its bar is changed.
+    await expect.poll(() => page.getByTestId('desk-bar-input').inputValue(), { timeout: 10_000 }).toBe('1')
     await page.getByTestId('desk-bar-input').fill('5')
     await page.getByTestId('desk-bar-input').press('Enter')
-    await expect.poll(() => row(page, 5).isVisible(), { timeout: 10_000 }).toBe(true)
+    await expect.poll(() => row(page, 5).isVisible(), { timeout: 20_000 }).toBe(true)
     // The line joined the hook's block.
     await expect.poll(() => page.locator('.desk-block[data-label="Hook"] [data-testid="desk-line"][data-bar="5"]').count(), { timeout: 10_000 }).toBe(1)
 

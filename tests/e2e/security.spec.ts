@@ -126,8 +126,8 @@ describe('lyric markup is text', () => {
       void d.dismiss()
     })
     await signInDemo(t.page, 'owner')
-    for (const room of ['sheet', 'history', 'map', 'lines']) {
-      await t.page.goto(`/songs/${songId}/${room}`)
+    for (const room of ['sheet', 'history', 'map', 'desk']) {
+      await t.page.goto(room === 'desk' ? `/songs/${songId}` : `/songs/${songId}/${room}`)
       await hydrated(t.page)
       await t.page.getByText('late bus', { exact: false }).first().waitFor({ state: 'attached', timeout: 15_000 })
       await t.page.waitForTimeout(300)

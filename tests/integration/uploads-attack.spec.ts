@@ -26,7 +26,8 @@ const runDir = () => resolve(inject('storageDir'), '..')
 
 beforeAll(async () => {
   storageRoot = resolve(runDir(), 'attack-storage')
-  tmpRoot = resolve(runDir(), 'attack-tmp')
+  // Uploads arrive in the storage root's incoming folder (never under a storage key) and are stored by rename.
+  tmpRoot = resolve(storageRoot, '.incoming')
   mkdirSync(storageRoot, { recursive: true })
   mkdirSync(tmpRoot, { recursive: true })
   const port = await randomFreePort()
@@ -34,7 +35,7 @@ beforeAll(async () => {
   const log = openSync(resolve(runDir(), 'attack-server.log'), 'a')
   server = await spawnServer({
     port,
-    env: { ...inject('serverEnv'), APP_URL: base, UPLOAD_LIMIT_MB: '1', SCRATCH_LIMIT_MB: '1', STORAGE_DIR: storageRoot, TMPDIR: tmpRoot },
+    env: { ...inject('serverEnv'), APP_URL: base, UPLOAD_LIMIT_MB: '1', SCRATCH_LIMIT_MB: '1', STORAGE_DIR: storageRoot, TMPDIR: resolve(runDir(), 'attack-tmp') },
     output: log,
   })
   crew = await makeCrew()
@@ -52,7 +53,7 @@ function filesUnder(dir: string): string[] {
   if (!existsSync(dir)) return []
   return readdirSync(dir, { recursive: true, encoding: 'utf8' }).map(f => join(dir, f)).filter(f => statSync(f).isFile())
 }
-const storedKeys = () => filesUnder(storageRoot).map(f => relative(storageRoot, f).split(sep).join('/')).sort()
+const storedKeys = () => filesUnder(storageRoot).map(f => relative(storageRoot, f).split(sep).join('/')).filter(k => !k.startsWith('.incoming/')).sort()
 async function keysInDatabase(songIds: string[]) {
   const rows = await sql(`SELECT storage_key AS k FROM beats WHERE song_id = ANY($1::uuid[])
     UNION ALL SELECT storage_key FROM scratch_takes WHERE song_id = ANY($1::uuid[])`, [songIds])
@@ -135,7 +136,7 @@ describe('uploads under attack', () => {
           }
           sent += 32 * 1024
           req.write(Buffer.alloc(32 * 1024, 3))
-          // While it arrives, the body is in this server's temporary directory (so "empty" below means something).
+          // While it arrives, the body is in this server's incoming folder (so "empty" below means something).
           if (!sawTemp && sent > 256 * 1024) sawTemp = filesUnder(tmpRoot).length > 0
         }, 15)
       })
