@@ -36,6 +36,8 @@ export const usePlayerStore = defineStore('player', () => {
 
   const position = computed<GridPosition>(() => positionAt(grid.value, positionS.value * 1000))
   const currentBar = computed(() => position.value.bar)
+  /** Whether the beat lane has an engine attached, so play does something. */
+  const ready = computed(() => !!engine.value)
   const loopSeconds = computed(() => {
     if (!loop.value) return null
     const { startMs, endMs } = barRangeMs(grid.value, loop.value.startBar, loop.value.endBar)
@@ -103,6 +105,6 @@ export const usePlayerStore = defineStore('player', () => {
 
   return {
     engine, positionS, durationS, playing, grid, loop, loopWraps, position, currentBar, loopSeconds,
-    attach, detach, setGrid, report, play, pause, toggle, seek, playFromBar, setLoop, clearLoop,
+    ready, attach, detach, setGrid, report, play, pause, toggle, seek, playFromBar, setLoop, clearLoop,
   }
 })
