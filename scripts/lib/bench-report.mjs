@@ -66,6 +66,24 @@ const SUMMARIES = {
       atMost('live event, saved through one process, out of another: p95', j.events?.acrossProcessesMs?.p95, 'ms', t.eventAcrossP95Ms, 'Barsmith\'s own, for issue 6'),
     ]
   },
+  'auth-timing'(j) {
+    // Enumeration by timing: known and unknown addresses must take about as long (issue 8).
+    return Object.entries(j.rows ?? {}).map(([route, r]) => {
+      const median = Math.max(r['known p50 ms'] ?? 0, r['unknown p50 ms'] ?? 0)
+      const limit = Math.max(0.1 * median, 5)
+      return atMost(`${route}: median gap, known vs unknown address (${fmt(r['known p50 ms'])} / ${fmt(r['unknown p50 ms'])} ms)`, r['gap ms'], 'ms', limit, 'Barsmith\'s own: 10 % of the median or 5 ms')
+    })
+  },
+  cadence(j) {
+    const f = j.figures ?? {}
+    return [
+      atMost(`cadence ticks in Chromium (${f.ticks} ticks): largest distance from the computed slot time`, f.tickDeviationMaxMs, 'ms', 5, 'issue 9'),
+      row('sheet text, p50 / p95', `${fmt(f.txtP50Ms)} / ${fmt(f.txtP95Ms)}`, 'ms'),
+      row('sheet text with cadence rows, p50 / p95', `${fmt(f.txtCadenceP50Ms)} / ${fmt(f.txtCadenceP95Ms)}`, 'ms'),
+      row('sheet PDF, p50 / p95', `${fmt(f.pdfP50Ms)} / ${fmt(f.pdfP95Ms)}`, 'ms'),
+      row('sheet PDF with cadence rows, p50 / p95', `${fmt(f.pdfCadenceP50Ms)} / ${fmt(f.pdfCadenceP95Ms)}`, 'ms'),
+    ]
+  },
   load(j) {
     const rows = (j.runs ?? []).map(r => row(
       `${r.scenario}, ${r.connections} connections (${r.requests} requests in ≤ ${r.durationS} s)`,

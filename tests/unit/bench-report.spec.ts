@@ -19,6 +19,14 @@ describe('the benchmark report', () => {
     ])
   })
 
+  it('holds the sign-in timing gap and the cadence tick distance to their bounds', () => {
+    const auth = summarise('auth-timing', { rows: { 'reset request': { 'known p50 ms': 60, 'unknown p50 ms': 40, 'gap ms': 20 }, 'sign-up': { 'known p50 ms': 250, 'unknown p50 ms': 251, 'gap ms': 1 } } })
+    expect(auth.map(r => r.met)).toEqual([false, true])
+    const cadence = summarise('cadence', { figures: { ticks: 8, tickDeviationMaxMs: 0.4, txtP50Ms: 1, txtP95Ms: 2 } })
+    expect(cadence[0]).toMatchObject({ met: true })
+    expect(summarise('cadence', { figures: { ticks: 8, tickDeviationMaxMs: 6 } })[0]).toMatchObject({ met: false })
+  })
+
   it('reads a benchmark it does not know by its report rows, or by figures and targets with the same keys', () => {
     expect(summarise('future', { report: [{ what: 'x p95', value: 12, unit: 'ms', target: '≤ 10 ms', met: false }] })[0]).toMatchObject({ what: 'x p95', met: false })
     const byKeys = summarise('other', { figures: { mapP95Ms: 250, rssGrowthMb: 90, bars: 64 }, targets: { mapP95Ms: 300, rssGrowthMb: 80 } })
