@@ -67,7 +67,9 @@ export const usePlayerStore = defineStore('player', () => {
       engine.value?.seekTo(l.start)
       return
     }
-    positionS.value = seconds
+    // A seek lands on the nearest decoded frame, a few ms before the loop start at times:
+    // show the loop's first bar, not the end of the bar before it.
+    positionS.value = l && isPlaying && seconds < l.start ? l.start : seconds
   }
 
   async function play() {

@@ -86,6 +86,9 @@ describe('alts live, as two people at once', () => {
     // The co-writer's page follows without a reload.
     await lineText(co.page, 'e2').getByText('Counting my steps till the sky turns to blue').waitFor({ timeout: 10_000 })
     await co.page.getByTestId('desk-version').getByText('version 2').waitFor()
+    // Its figures follow too: coun·ting my steps till the sky turns to blue = 10 syllables (CMU Pronouncing Dictionary).
+    const taken = co.page.locator('[data-row-line="e2"]')
+    await expect.poll(() => taken.getByTestId('line-syllables').textContent(), { timeout: 10_000 }).toBe('10')
     await screenshot(co.page, 'alts-cowriter-sees-new-line')
     for (const p of [co, wr]) {
       expect(p.external).toEqual([])
