@@ -17,6 +17,12 @@ export async function startFakeSmtp({ port, dir, host = '127.0.0.1' }) {
     banner: 'Barsmith fake SMTP (local only)',
     logger: false,
     size: 50 * 1024 * 1024,
+    // Addresses at reject.test (a reserved name, RFC 2606) are refused for good, as a real
+    // server refuses an unknown mailbox, so a permanent failure can be tried locally.
+    onRcptTo(address, session, callback) {
+      if (/@reject\.test$/i.test(address.address)) return callback(Object.assign(new Error('No such mailbox here'), { responseCode: 550 }))
+      callback()
+    },
     onData(stream, session, callback) {
       const chunks = []
       stream.on('data', c => chunks.push(c))

@@ -17,12 +17,12 @@ export default defineNitroPlugin((nitroApp) => {
     }
     running = true
     try {
-      let handled = 0
+      let claimed = 0
       do {
         again = false
-        // A full batch means more may be waiting: go on without waiting for the timer.
-        handled = await deliverDueMail(useDb(), MAIL_BATCH)
-      } while (again || handled >= MAIL_BATCH)
+        // A full batch (sent or not) means more may be waiting: go on without waiting for the timer.
+        claimed = (await deliverDueMail(useDb(), MAIL_BATCH)).claimed
+      } while (again || claimed >= MAIL_BATCH)
     }
     catch (error) {
       console.warn('[outbox] delivery round failed:', (error as Error).message)

@@ -74,17 +74,17 @@ const SEND_CONCURRENCY = 5
  * work) by pushing their next attempt past a lease, sends them a few at a time over pooled
  * SMTP connections and records each outcome; a failure is retried later with a growing
  * delay. A sender that dies mid-send leaves its messages to be retried when the lease ends.
- * Returns how many were sent.
+ * Returns how many it claimed and how many of those were sent.
  */
-export async function deliverDueMail(db: DbOrTx, batch = 20): Promise<number> {
+export async function deliverDueMail(db: DbOrTx, batch = 20): Promise<{ claimed: number, sent: number }> {
   const claimed = await db.execute<{ id: string }>(sql`
     UPDATE outbox SET next_attempt_at = now() + make_interval(secs => ${CLAIM_LEASE_SECONDS}), attempts = attempts + 1
     WHERE id IN (
       SELECT id FROM outbox WHERE status = 'pending' AND next_attempt_at <= now()
-      ORDER BY next_attempt_at LIMIT ${batch} FOR UPDATE SKIP LOCKED
+      ORDER BY attempts, next_attempt_at LIMIT ${batch} FOR UPDATE SKIP LOCKED
     ) RETURNING id`)
   const ids = claimed.rows.map(r => r.id)
-  if (ids.length === 0) return 0
+  if (ids.length === 0) return { claimed: 0, sent: 0 }
   const messages = await db.select().from(outbox).where(inArray(outbox.id, ids))
   let sent = 0
   const queue = [...messages]
@@ -96,8 +96,12 @@ export async function deliverDueMail(db: DbOrTx, batch = 20): Promise<number> {
         sent++
       }
       catch (error) {
+        // A 5xx reply is the mail server's final word on this message (RFC 5321, 4.2.1):
+        // retrying it would only hold up the mail behind it.
+        const code = Number((error as { responseCode?: unknown }).responseCode)
+        const permanent = code >= 500 && code < 600
         await db.update(outbox).set({
-          status: message.attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending',
+          status: permanent || message.attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending',
           lastError: String((error as Error).message ?? error).slice(0, 1000),
           nextAttemptAt: new Date(Date.now() + retryDelaySeconds(message.attempts) * 1000),
         }).where(eq(outbox.id, message.id))
@@ -105,5 +109,5 @@ export async function deliverDueMail(db: DbOrTx, batch = 20): Promise<number> {
     }
   }
   await Promise.all(Array.from({ length: Math.min(SEND_CONCURRENCY, messages.length) }, worker))
-  return sent
+  return { claimed: ids.length, sent }
 }

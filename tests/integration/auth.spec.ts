@@ -43,6 +43,24 @@ describe('sign-up and e-mail verification', () => {
     expect(again.status).toBe(400)
   })
 
+  it('gives up at once on a mail the mail server refuses for good, and the mail behind it still goes out', async () => {
+    // The fake SMTP server answers 550 for reject.test, as a real one does for an unknown mailbox;
+    // a 5xx reply is a permanent failure (RFC 5321, 4.2.1), so retrying it would only hold up other mail.
+    const refusedAddress = `${randomUUID().slice(0, 8)}@reject.test`
+    await signUp(refusedAddress)
+    let row: Array<{ status: string, attempts: number, last_error: string | null }> = []
+    for (let i = 0; i < 100; i++) {
+      row = await sql(`SELECT status, attempts, last_error FROM outbox WHERE "to" = $1`, [refusedAddress])
+      if (row[0]?.status !== 'pending') break
+      await new Promise(r => setTimeout(r, 200))
+    }
+    expect(row[0]).toMatchObject({ status: 'failed', attempts: 1 })
+    expect(row[0]!.last_error).toMatch(/550/)
+    const email = newEmail('after-refused')
+    await signUp(email)
+    await waitForMail(email, m => /Confirm your e-mail/.test(m.subject))
+  })
+
   it('answers a sign-up with an existing address exactly like a new one', async () => {
     const email = newEmail('twice')
     const first = await new ApiClient().post('/api/auth/register', { name: 'One', email, password })
