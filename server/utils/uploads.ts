@@ -132,15 +132,12 @@ export function receiveUpload<F extends string>(event: H3Event, spec: UploadSpec
       req.unpipe(bb)
       out?.destroy()
       void rm(tmpPath, { force: true })
-      // The rest of the body is not stored. A small rest is read and dropped before the reply, so
-      // a client still sending it reads the reply instead of a broken pipe; past a bound, the reply
-      // goes out at once and a "lingering close" (as web servers do) discards a little more before
-      // the connection is dropped.
-      discardBriefly(req, () => {
-        event.node.res.setHeader('Connection', 'close')
-        event.node.res.once('finish', () => lingerThenClose(req))
-        reject(error)
-      })
+      // The rest of the body is not stored. After the reply, a bounded "lingering close" (as
+      // web servers do) discards a little more so the client reads the reply before the
+      // socket closes, instead of a reset; then the connection is dropped.
+      event.node.res.setHeader('Connection', 'close')
+      event.node.res.once('finish', () => lingerThenClose(req))
+      reject(error)
     }
 
     bb.on('file', (name, stream, info) => {
@@ -218,36 +215,7 @@ export function receiveUpload<F extends string>(event: H3Event, spec: UploadSpec
 const LINGER_BYTES = 256 * 1024 * 1024
 const LINGER_MS = 2000
 
-const DISCARD_BEFORE_REPLY_BYTES = 1024 * 1024
-const DISCARD_BEFORE_REPLY_MS = 500
-
-/** Reads and drops the rest of a refused body until it ends, or for a bounded size and time, then calls `then`. */
-function discardBriefly(req: H3Event['node']['req'], then: () => void) {
-  if (req.complete || req.destroyed) return then()
-  let discarded = 0
-  let called = false
-  const finish = () => {
-    if (called) return
-    called = true
-    clearTimeout(timer)
-    req.off('data', onData)
-    req.off('end', finish)
-    req.off('close', finish)
-    then()
-  }
-  const onData = (chunk: Buffer) => {
-    discarded += chunk.length
-    if (discarded > DISCARD_BEFORE_REPLY_BYTES) finish()
-  }
-  const timer = setTimeout(finish, DISCARD_BEFORE_REPLY_MS)
-  req.on('data', onData)
-  req.once('end', finish)
-  req.once('close', finish)
-  req.resume()
-}
-
 function lingerThenClose(req: H3Event['node']['req']) {
-  if (req.complete) return void req.destroy()
   let discarded = 0
   const done = () => {
     clearTimeout(timer)

@@ -1,32 +1,39 @@
 import { randomUUID } from 'node:crypto'
-import { beats } from '../../../../database/schema'
+import { eq, sql } from 'drizzle-orm'
+import { beats, songs } from '../../../../database/schema'
 import { beatAudioKey, receiveAudioUpload, removeTemp, storeUpload } from '../../../../utils/beat-files'
 
 export default defineEventHandler(async (event) => {
   // The role is checked before a byte of the body is read: nobody uploads 200 MB to be refused.
   const { song, user } = await requireSongAccess(event, 'beat.upload')
   const upload = await receiveAudioUpload(event, useEnv().UPLOAD_LIMIT_MB * 1024 * 1024)
+  const id = randomUUID()
+  const storageKey = beatAudioKey(song.id, id, upload.format)
+  let stored = false
+  let recorded = false
   try {
-    const id = randomUUID()
-    const storageKey = beatAudioKey(song.id, id, upload.format)
     await storeUpload(storageKey, upload.tmpPath)
-    let beat
-    for (let attempt = 0; !beat; attempt++) {
-      try {
-        ;[beat] = await useDb().insert(beats).values({
-          id, songId: song.id, bounce: await nextBounce(song.id), uploadedBy: user.id, originalName: upload.originalName,
-          format: upload.format, sizeBytes: upload.sizeBytes, storageKey,
-        }).returning()
-      }
-      catch (error) {
-        // Two uploads at once took the same bounce number: take the next one.
-        if (attempt < 3 && (error as { cause?: { code?: string } }).cause?.code === '23505') continue
-        throw error
-      }
-    }
+    stored = true
+    // Many uploads at once to one song each get the next bounce number: the song row is locked
+    // while its number is taken, so none collides and none is refused.
+    const beat = await useDb().transaction(async (tx) => {
+      await tx.select({ id: songs.id }).from(songs).where(eq(songs.id, song.id)).for('update')
+      const [row] = await tx.select({ n: sql<number>`coalesce(max(${beats.bounce}), 0)::int` }).from(beats).where(eq(beats.songId, song.id))
+      const [created] = await tx.insert(beats).values({
+        id, songId: song.id, bounce: (row?.n ?? 0) + 1, uploadedBy: user.id, originalName: upload.originalName,
+        format: upload.format, sizeBytes: upload.sizeBytes, storageKey,
+      }).returning()
+      return created!
+    })
+    recorded = true
     await queueBeatAnalysis(beat.id)
     setResponseStatus(event, 201)
     return { id: beat.id, status: 'queued' as const, bounce: beat.bounce }
+  }
+  catch (error) {
+    // No row points at the file: do not leave it in storage.
+    if (stored && !recorded) await useStorage('files').removeItem(storageKey).catch(() => undefined)
+    throw error
   }
   finally {
     await removeTemp(upload.tmpPath)
