@@ -1,3 +1,4 @@
+import type { DbOrTx } from './db'
 import { and, desc, eq, isNull, lt, sql } from 'drizzle-orm'
 import { analyseFile } from './audio/analyse'
 import { AudioDecodeError } from './audio/decode'
@@ -133,8 +134,8 @@ export async function requeueOrphanBeats(): Promise<number> {
   return orphans.length
 }
 
-/** The next bounce number of a song. */
-export async function nextBounce(songId: string): Promise<number> {
-  const [row] = await useDb().select({ n: sql<number>`coalesce(max(${beats.bounce}), 0)::int` }).from(beats).where(eq(beats.songId, songId))
+/** The next bounce number of a song (call it inside a transaction that holds the song's row lock). */
+export async function nextBounce(db: DbOrTx, songId: string): Promise<number> {
+  const [row] = await db.select({ n: sql<number>`coalesce(max(${beats.bounce}), 0)::int` }).from(beats).where(eq(beats.songId, songId))
   return (row?.n ?? 0) + 1
 }

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import { eq, sql } from 'drizzle-orm'
+import { eq } from 'drizzle-orm'
 import { beats, songs } from '../../../../database/schema'
 import { beatAudioKey, receiveAudioUpload, removeTemp, storeUpload } from '../../../../utils/beat-files'
 
@@ -18,9 +18,8 @@ export default defineEventHandler(async (event) => {
     // while its number is taken, so none collides and none is refused.
     const beat = await useDb().transaction(async (tx) => {
       await tx.select({ id: songs.id }).from(songs).where(eq(songs.id, song.id)).for('update')
-      const [row] = await tx.select({ n: sql<number>`coalesce(max(${beats.bounce}), 0)::int` }).from(beats).where(eq(beats.songId, song.id))
       const [created] = await tx.insert(beats).values({
-        id, songId: song.id, bounce: (row?.n ?? 0) + 1, uploadedBy: user.id, originalName: upload.originalName,
+        id, songId: song.id, bounce: await nextBounce(tx, song.id), uploadedBy: user.id, originalName: upload.originalName,
         format: upload.format, sizeBytes: upload.sizeBytes, storageKey,
       }).returning()
       return created!
